@@ -1,0 +1,5 @@
+// The measurement engine: pure computations shared by the browser, the server and the CLI.
+// Each section re-exports one module per computation.
+
+// Errors
+export * from './errors';
