@@ -31,7 +31,7 @@ export function createApp(context: AppContext): Express {
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
-  api.use(requireSameOrigin([context.config.appUrl], context.sessions.cookieName));
+  api.use(requireSameOrigin(() => context.config.appUrl, context.sessions.cookieName));
   api.use('/health', healthRouter(context));
   api.use('/auth', authRouter(context));
   api.use('/users', usersRouter(context));

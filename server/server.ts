@@ -53,6 +53,8 @@ export async function startServer(
     listening.once('error', reject);
   });
   const port = (server.address() as AddressInfo).port;
+  // Started on "any free port": links and the Origin check use the port we got.
+  if (config.port === 0) config.appUrl = `http://${config.host}:${port}`;
   return {
     url: `http://${config.host}:${port}`,
     port,

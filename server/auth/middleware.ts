@@ -54,15 +54,14 @@ const safeMethods = new Set(['GET', 'HEAD', 'OPTIONS']);
  * Cross-site request forgery guard: a state-changing request that carries a
  * session cookie must come from one of our own origins.
  */
-export function requireSameOrigin(allowedOrigins: string[], sessionCookieName: string): RequestHandler {
-  const allowed = new Set(allowedOrigins.map((origin) => new URL(origin).origin));
+export function requireSameOrigin(appUrl: () => string, sessionCookieName: string): RequestHandler {
   return (request, _response, next) => {
     if (safeMethods.has(request.method)) return next();
     if (!request.headers.cookie?.includes(`${sessionCookieName}=`)) return next();
     const origin = request.headers.origin;
     const host = request.headers.host;
     const sameHost = origin !== undefined && host !== undefined && URL.canParse(origin) && new URL(origin).host === host;
-    if (origin && (allowed.has(origin) || sameHost)) return next();
+    if (origin && (origin === new URL(appUrl()).origin || sameHost)) return next();
     next(forbidden('Request refused: it did not come from a Rejectra page (Origin header missing or foreign)'));
   };
 }

@@ -14,7 +14,8 @@ import type { AccountLinkPurpose } from '../models/account-link';
 export interface LinkContext {
   sequelize: Sequelize;
   mailer: Mailer;
-  appUrl: string;
+  /** Read at use, since a server started on port 0 learns its address only when listening. */
+  config: { appUrl: string };
   now?: () => Date;
 }
 
@@ -33,7 +34,7 @@ async function issueLink(
   const { token, tokenHash } = newLinkToken();
   const expiresAt = new Date(now.getTime() + linkLifetimeMs[purpose]);
   await AccountLink.create({ id: randomUUID(), userId: user.id, purpose, tokenHash, expiresAt, usedAt: null }, { transaction });
-  return { link: `${context.appUrl}/link/${token}`, expiresAt };
+  return { link: `${context.config.appUrl}/link/${token}`, expiresAt };
 }
 
 async function sendOrFail(context: LinkContext, send: () => Promise<void>): Promise<void> {

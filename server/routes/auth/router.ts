@@ -18,7 +18,7 @@ import { presentUser } from '../../presenters/user';
 export function authRouter(context: AppContext): Router {
   const router = Router();
   const limit = authRateLimit(context.config);
-  const links: LinkContext = { sequelize: context.database.sequelize, mailer: context.mailer, appUrl: context.config.appUrl, now: context.now };
+  const links: LinkContext = { sequelize: context.database.sequelize, mailer: context.mailer, config: context.config, now: context.now };
 
   router.post('/sign-in', limit, validateBody(signInRequestSchema), async (request, response) => {
     const { email, password } = request.body as SignInRequest;

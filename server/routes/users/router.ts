@@ -13,7 +13,7 @@ const idSchema = z.uuid({ error: 'Not a person id' });
 
 export function usersRouter(context: AppContext): Router {
   const router = Router();
-  const links: LinkContext = { sequelize: context.database.sequelize, mailer: context.mailer, appUrl: context.config.appUrl, now: context.now };
+  const links: LinkContext = { sequelize: context.database.sequelize, mailer: context.mailer, config: context.config, now: context.now };
   router.use(authenticate(context.sessions), authorize('lead'));
 
   router.get('/', async (_request, response) => {

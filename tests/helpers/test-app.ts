@@ -1,0 +1,77 @@
+// A whole Rejectra server for a test file: its own database, its own mail stand-in
+// folder and ports, the demo accounts seeded.
+import { mkdtemp, rm } from 'node:fs/promises';
+import os from 'node:os';
+import path from 'node:path';
+import pino from 'pino';
+import { loadConfig, type ServerConfig } from '../../server/config';
+import { listMessages, readMessage } from '../../server/mail/mailbox';
+import { startMailStandIn, type MailStandIn } from '../../server/mail/local-stand-in';
+import { seedDemo } from '../../server/seed';
+import { startServer, type RunningServer } from '../../server/server';
+import { createTestDatabase, type TestDatabase } from './test-database';
+
+export interface TestApp {
+  url: string;
+  origin: string;
+  server: RunningServer;
+  config: ServerConfig;
+  /** Messages the stand-in received, newest first, with their text. */
+  mail(): Promise<{ to: string; subject: string; text: string }[]>;
+  /** The link (`/link/<token>`) in the newest message to `to`. */
+  linkSentTo(to: string): Promise<string>;
+  /** Lets a test move the server's clock forward (link expiry). */
+  advanceClock(milliseconds: number): void;
+  close(): Promise<void>;
+}
+
+export async function startTestApp(options: { seed?: boolean; env?: NodeJS.ProcessEnv } = {}): Promise<TestApp> {
+  const database: TestDatabase = await createTestDatabase();
+  const mailDir = await mkdtemp(path.join(os.tmpdir(), 'rejectra-mail-'));
+  const standIn: MailStandIn = await startMailStandIn({ port: 0, dir: mailDir });
+  const config: ServerConfig = {
+    ...loadConfig({
+      DATABASE_URL: database.url,
+      PORT: '0',
+      MAIL_STAND_IN_DIR: mailDir,
+      MAIL_STAND_IN_PORT: String(standIn.port),
+      LOG_LEVEL: 'silent',
+      // Suites sign in far more often than a person; the limit has a test of its own.
+      AUTH_RATE_LIMIT: '100000',
+      ...options.env,
+    }),
+  };
+  let clockOffset = 0;
+  const server = await startServer(config, { logger: pino({ level: 'silent' }), now: () => new Date(Date.now() + clockOffset) });
+  if (options.seed !== false) await seedDemo(server.context.database.sequelize);
+
+  const mail = async () => {
+    const summaries = await listMessages(mailDir);
+    const messages = await Promise.all(summaries.map((summary) => readMessage(mailDir, summary.id)));
+    return messages.filter((message) => message !== null).map(({ to, subject, text }) => ({ to, subject, text }));
+  };
+
+  return {
+    url: server.url,
+    origin: server.url,
+    server,
+    config: server.context.config,
+    mail,
+    async linkSentTo(to) {
+      const message = (await mail()).find((candidate) => candidate.to.includes(to));
+      if (!message) throw new Error(`No e-mail to ${to} in the stand-in`);
+      const match = message.text.match(/https?:\/\/\S+\/link\/[A-Za-z0-9_-]+/);
+      if (!match) throw new Error(`The e-mail to ${to} holds no link:\n${message.text}`);
+      return match[0];
+    },
+    advanceClock(milliseconds) {
+      clockOffset += milliseconds;
+    },
+    async close() {
+      await server.close();
+      await standIn.close();
+      await database.drop();
+      await rm(mailDir, { recursive: true, force: true });
+    },
+  };
+}
