@@ -103,18 +103,31 @@ if (config.mailIsLocalStandIn) {
 }
 
 runStep('migrating and seeding the demo', process.execPath, ['--import', 'tsx', 'server/seed-main.ts']);
-runStep('building the client', process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn']);
+// `npm run dev` serves the client from Vite with hot reload instead of building it.
+const devMode = process.argv.includes('--dev');
+if (!devMode) {
+  runStep('building the client', process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), 'build', '--logLevel', 'warn']);
+}
 
 if (config.mailIsLocalStandIn) {
   env.MAIL_STAND_IN_DIR = config.mailStandInDir;
   startChild('mail stand-in', 'server/mail/stand-in-main.ts');
 }
 startChild('server', 'server/main.ts');
+if (devMode) {
+  const vite = spawn(process.execPath, [path.join(root, 'node_modules/vite/bin/vite.js'), '--host', '127.0.0.1', '--port', '5173', '--strictPort'], {
+    stdio: 'inherit',
+    env,
+    cwd: root,
+  });
+  vite.once('exit', () => stopAll(0));
+  children.push(vite);
+}
 
 if (await waitForHealth(config.appUrl, 30_000)) {
   const accounts = demoAccounts.map((account) => `    ${account.email.padEnd(26)} ${account.role}`).join('\n');
   process.stdout.write(
-    `\n  Rejectra is running at ${config.appUrl}\n\n` +
+    `\n  Rejectra is running at ${devMode ? 'http://127.0.0.1:5173 (Vite, hot reload; API at ' + config.appUrl + ')' : config.appUrl}\n\n` +
       `  Demo sign-ins (password "${demoPassword}", demo only):\n${accounts}\n\n` +
       (config.mailIsLocalStandIn ? `  Mail goes to the local stand-in; leads read it under Mailbox.\n` : `  Mail goes out through ${new URL(config.smtpUrl).host}.\n`) +
       `  Ctrl-C stops everything.\n\n`,
