@@ -3,3 +3,8 @@
 
 // Errors
 export * from './errors';
+
+// Sweeps and regression against frequency
+export * from './sweep-file';
+export * from './cmrr-points';
+export * from './frequency-fit';
