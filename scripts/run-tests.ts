@@ -51,7 +51,8 @@ const clientDir = path.join(workDir, 'client');
 const env: NodeJS.ProcessEnv = {
   ...process.env,
   TEST_DATABASE_URL: cluster.url('postgres'),
-  CLIENT_DIR: clientDir,
+  // A partial run (with arguments) uses the client that `npm run build` left in dist/client.
+  ...(vitestArgs.length === 0 ? { CLIENT_DIR: clientDir } : {}),
   TEST_ARTIFACTS_DIR: path.join(root, 'test-artifacts'),
   NODE_ENV: 'test',
 };
@@ -75,14 +76,14 @@ if (existsSync(reportFile)) {
     numFailedTests: number;
     numPendingTests: number;
     numTodoTests: number;
-    testResults: { status: string; name: string; assertionResults: unknown[]; message?: string }[];
+    testResults: { status: string; name: string; assertionResults: { status: string }[]; message?: string }[];
   };
   passed += report.numPassedTests;
   failed += report.numFailedTests;
   skipped += report.numPendingTests + report.numTodoTests;
-  // A test file that fails to load has no tests to count: count the file.
+  // A file that fails outside its tests (import, beforeAll) has no failed test to count: count the file.
   for (const file of report.testResults) {
-    if (file.status === 'failed' && file.assertionResults.length === 0) {
+    if (file.status === 'failed' && !file.assertionResults.some((result) => result.status === 'failed')) {
       failed += 1;
       process.stdout.write(`failed to run: ${path.relative(root, file.name)} ${file.message ?? ''}\n`);
     }

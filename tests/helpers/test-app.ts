@@ -36,6 +36,8 @@ export async function startTestApp(options: { seed?: boolean; env?: NodeJS.Proce
       MAIL_STAND_IN_DIR: mailDir,
       MAIL_STAND_IN_PORT: String(standIn.port),
       LOG_LEVEL: 'silent',
+      // npm test builds the client into a folder of its own and names it here.
+      ...(process.env.CLIENT_DIR ? { CLIENT_DIR: process.env.CLIENT_DIR } : {}),
       // Suites sign in far more often than a person; the limit has a test of its own.
       AUTH_RATE_LIMIT: '100000',
       ...options.env,
