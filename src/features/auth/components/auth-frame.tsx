@@ -36,7 +36,7 @@ export function AuthFrame({ title, lead, children }: { title: string; lead?: Rea
 function TraceBackdrop() {
   return (
     <svg
-      className="pointer-events-none absolute inset-x-0 bottom-24 h-56 w-full opacity-60"
+      className="pointer-events-none absolute inset-x-0 top-[30%] h-56 w-full opacity-60"
       viewBox="0 0 400 160"
       preserveAspectRatio="none"
       aria-hidden="true"

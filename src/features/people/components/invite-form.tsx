@@ -55,37 +55,39 @@ export function InviteForm() {
       <form noValidate onSubmit={handleSubmit} className="mt-4 space-y-4" aria-label="Invite a person">
         <FormError message={formMessage} />
         <FormSuccess message={sentTo} />
-        <TextField
-          label="Name"
-          name="name"
-          autoComplete="off"
-          value={name}
-          onChange={(event) => setName(event.target.value)}
-          error={fieldErrors.name ?? serverFields.name}
-        />
-        <TextField
-          label="E-mail"
-          type="email"
-          name="email"
-          autoComplete="off"
-          value={email}
-          onChange={(event) => setEmail(event.target.value)}
-          error={fieldErrors.email ?? serverFields.email}
-        />
-        <SelectField
-          label="Role"
-          name="role"
-          value={role}
-          onChange={(event) => setRole(event.target.value as Role)}
-          hint={roleDescriptions[role]}
-          error={fieldErrors.role ?? serverFields.role}
-        >
-          {roles.map((option) => (
-            <option key={option} value={option}>
-              {roleLabels[option]}
-            </option>
-          ))}
-        </SelectField>
+        <div className="grid items-start gap-4 lg:grid-cols-[1fr_1fr_minmax(14rem,0.8fr)]">
+          <TextField
+            label="Name"
+            name="name"
+            autoComplete="off"
+            value={name}
+            onChange={(event) => setName(event.target.value)}
+            error={fieldErrors.name ?? serverFields.name}
+          />
+          <TextField
+            label="E-mail"
+            type="email"
+            name="email"
+            autoComplete="off"
+            value={email}
+            onChange={(event) => setEmail(event.target.value)}
+            error={fieldErrors.email ?? serverFields.email}
+          />
+          <SelectField
+            label="Role"
+            name="role"
+            value={role}
+            onChange={(event) => setRole(event.target.value as Role)}
+            hint={roleDescriptions[role]}
+            error={fieldErrors.role ?? serverFields.role}
+          >
+            {roles.map((option) => (
+              <option key={option} value={option}>
+                {roleLabels[option]}
+              </option>
+            ))}
+          </SelectField>
+        </div>
         <Button type="submit" busy={invite.isPending} busyLabel="Sending invitation…">
           Send invitation
         </Button>

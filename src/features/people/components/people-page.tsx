@@ -14,9 +14,10 @@ export default function PeoplePage({ currentUserId }: { currentUserId: string })
         title="People"
         lead="Who can use Rejectra and in what role. Changes take effect at once; a deactivated person is signed out everywhere."
       />
-      <div className="grid items-start gap-6 2xl:grid-cols-[1fr_24rem]">
+      <div className="space-y-6">
+        <InviteForm />
         <section aria-labelledby="people-table-title" className="min-w-0">
-          <h2 id="people-table-title" className="sr-only">
+          <h2 id="people-table-title" className="mb-3 text-lg font-semibold text-ink-900">
             Accounts
           </h2>
           {users.isPending && <LoadingState label="Loading people…" />}
@@ -51,7 +52,6 @@ export default function PeoplePage({ currentUserId }: { currentUserId: string })
             </div>
           )}
         </section>
-        <InviteForm />
       </div>
     </>
   );

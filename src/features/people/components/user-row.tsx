@@ -53,7 +53,7 @@ export function UserRow({ user, isYou }: { user: User; isYou: boolean }) {
         {user.name}
         {isYou && <span className="ml-2 rounded bg-trace-100 px-1.5 py-0.5 text-sm font-medium text-trace-800">you</span>}
       </th>
-      <td className="px-4 py-3 break-all">{user.email}</td>
+      <td className="px-4 py-3 break-words">{user.email}</td>
       <td className="px-4 py-3">
         <label className="sr-only" htmlFor={`role-${user.id}`}>
           Role for {user.name}
@@ -87,8 +87,16 @@ export function UserRow({ user, isYou }: { user: User; isYou: boolean }) {
           {!confirming && (
             <>
               {user.status === 'invited' && (
-                <Button size="sm" variant="secondary" busy={resend.isPending} busyLabel="Resending…" onClick={resendInvitation}>
-                  Resend invitation
+                <Button
+                  size="sm"
+                  variant="secondary"
+                  busy={resend.isPending}
+                  busyLabel="Sending…"
+                  onClick={resendInvitation}
+                  aria-label={`Send new link to ${user.name}`}
+                  title="E-mail a fresh invitation link; the earlier one stops working"
+                >
+                  Send new link
                 </Button>
               )}
               {!isYou && (
