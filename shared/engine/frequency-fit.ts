@@ -529,7 +529,7 @@ function describeRegimes(spans: RegimeSpan[], cmrrDcDb: number | null): string {
  * `monotoneToleranceDb` after a 5-point running median), the corner lies inside the resolved
  * frequency range with a 95 % interval narrower than a decade each side, and the residual RMS is
  * at most `maxResidualRmsDb`. Otherwise `model` is `smooth`, `modelReason` says which check failed,
- * and the CMRR is described by a polynomial in log10(f) (resolved points only; degree 1–5 chosen
+ * and the CMRR is described by a polynomial in log10(f) (resolved points only; degree 1–8 chosen
  * by the corrected Akaike criterion) from which the low-frequency level, the −3 dB frequency, the
  * top-decade slope and the regimes are read where the data show them.
  *
@@ -755,7 +755,7 @@ function smoothFit(
   const scaled = resolvedLog10.map((x) => (x - middle) / half);
 
   let best: { regression: PolynomialRegression; degree: number; criterion: number } | null = null;
-  const highestDegree = Math.min(5, count - 2);
+  const highestDegree = Math.min(8, count - 2);
   for (let degree = 1; degree <= highestDegree; degree++) {
     const regression = new PolynomialRegression(scaled, resolvedDb, degree);
     let sse = 0;
