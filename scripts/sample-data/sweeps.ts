@@ -35,7 +35,7 @@ interface SweepPairSpec {
   delimiter: ',' | ';';
   decimalComma: boolean;
   fallingOrder: boolean;
-  /** Common-mode frequencies measured a second time (the file then needs --average-repeats). */
+  /** Common-mode frequencies (nearest grid point) measured a second time (the file then needs --average-repeats). */
   repeatedHz: number[];
   seed: number;
 }
@@ -127,7 +127,7 @@ const specs: SweepPairSpec[] = [
     note: [
       'exported from a spreadsheet with semicolons and decimal commas; the differential sweep has',
       '5 points a decade, the common-mode sweep 10 (the differential gain is interpolated);',
-      '1 kHz and 10 kHz were measured twice: analyze with --average-repeats',
+      'the points near 1 kHz and 10 kHz were measured twice: analyze with --average-repeats',
     ],
     differentialGain: 10,
     bandwidthHz: 150e3,
@@ -195,7 +195,9 @@ function writeSweep(spec: SweepPairSpec, drive: 'differential' | 'common-mode', 
   };
   for (const frequencyHz of frequencies) {
     emit(frequencyHz);
-    if (drive === 'common-mode' && spec.repeatedHz.includes(frequencyHz)) emit(frequencyHz);
+    // Repeats at the grid frequency nearest each listed one (the grid is rounded to 4 digits).
+    const repeated = spec.repeatedHz.some((hz) => Math.abs(Math.log10(frequencyHz / hz)) < 0.05);
+    if (drive === 'common-mode' && repeated) emit(frequencyHz);
   }
   if (spec.fallingOrder) rows.reverse();
 
