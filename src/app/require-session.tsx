@@ -1,11 +1,13 @@
+import type { ReactNode } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router-dom';
 import { Wordmark } from '../components/logo';
 import { ErrorState, LoadingState } from '../components/states';
 import { useSession } from '../features/auth/api/get-session';
 import { errorMessage } from '../lib/api-client';
+import { returnPath } from '../lib/return-path';
 import { SignedInUserContext } from './signed-in-user';
 
-function FullPage({ children }: { children: React.ReactNode }) {
+function FullPage({ children }: { children: ReactNode }) {
   return (
     <div className="mx-auto max-w-xl px-6 py-16">
       <Wordmark />
@@ -48,9 +50,16 @@ export function RequireSession() {
 }
 
 /** The sign-in page is pointless when already signed in: go to the app instead. */
-export function RedirectIfSignedIn({ children }: { children: React.ReactNode }) {
+export function RedirectIfSignedIn({ children }: { children: ReactNode }) {
   const session = useSession();
-  if (session.isPending) return <FullPage><LoadingState label="Checking your session…" /></FullPage>;
-  if (session.data) return <Navigate to="/" replace />;
+  const location = useLocation();
+  if (session.isPending) {
+    return (
+      <FullPage>
+        <LoadingState label="Checking your session…" />
+      </FullPage>
+    );
+  }
+  if (session.data) return <Navigate to={returnPath(location.state)} replace />;
   return <>{children}</>;
 }

@@ -1,4 +1,4 @@
-import { lazy } from 'react';
+import { lazy, type ReactNode } from 'react';
 import { Link, useRouteError } from 'react-router-dom';
 import { NeedsRole } from '../components/needs-role';
 import { PageHeader } from '../components/page-header';
@@ -27,7 +27,7 @@ function Title({ area }: { area: string }) {
 }
 
 /** Areas closed to the person's role show why instead of the page (the API refuses them too). */
-function RoleGate({ id, children }: { id: AreaId; children: React.ReactNode }) {
+function RoleGate({ id, children }: { id: AreaId; children: ReactNode }) {
   const user = useSignedInUser();
   const area = areaById(id);
   if (!roleMayOpen(area, user.role)) {

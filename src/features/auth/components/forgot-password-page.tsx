@@ -4,7 +4,7 @@ import { forgotPasswordRequestSchema } from '../../../../shared/schemas/auth';
 import { Button } from '../../../components/button';
 import { TextField } from '../../../components/field';
 import { FormError, FormSuccess } from '../../../components/form-error';
-import { ApiRequestError, errorMessage } from '../../../lib/api-client';
+import { formErrorsFrom } from '../../../lib/form-errors';
 import { fieldErrorsFromIssues } from '../../../lib/zod-fields';
 import { useRequestPasswordReset } from '../api/forgot-password';
 import { AuthFrame } from './auth-frame';
@@ -17,8 +17,7 @@ export default function ForgotPasswordPage() {
   const reset = useRequestPasswordReset();
 
   const serverError = reset.error;
-  const serverFields = serverError instanceof ApiRequestError ? serverError.fields : {};
-  const formMessage = serverError && !serverFields.email ? errorMessage(serverError) : null;
+  const { formMessage, fields: serverFields } = formErrorsFrom(serverError);
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();

@@ -7,6 +7,7 @@ import { TextField } from '../../../components/field';
 import { FormError } from '../../../components/form-error';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { ApiRequestError, errorMessage, isApiStatus } from '../../../lib/api-client';
+import { formErrorsFrom } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format-date';
 import { useAcceptLink } from '../api/accept-link';
 import { useLinkInfo } from '../api/get-link';
@@ -43,9 +44,8 @@ function ChoosePassword({ token, link }: { token: string; link: LinkInfoResponse
   const [errors, setErrors] = useState<NewPasswordErrors>({});
 
   const serverError = accept.error;
-  const serverFields = serverError instanceof ApiRequestError ? serverError.fields : {};
+  const { formMessage, fields: serverFields } = formErrorsFrom(serverError);
   const linkGone = isApiStatus(serverError, 404, 410);
-  const formMessage = serverError && !serverFields.password ? errorMessage(serverError) : null;
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();

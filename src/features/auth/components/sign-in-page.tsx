@@ -4,16 +4,11 @@ import { signInRequestSchema } from '../../../../shared/schemas/auth';
 import { Button } from '../../../components/button';
 import { TextField } from '../../../components/field';
 import { FormError } from '../../../components/form-error';
-import { ApiRequestError, errorMessage } from '../../../lib/api-client';
+import { returnPath } from '../../../lib/return-path';
+import { formErrorsFrom } from '../../../lib/form-errors';
 import { fieldErrorsFromIssues } from '../../../lib/zod-fields';
 import { useSignIn } from '../api/sign-in';
 import { AuthFrame } from './auth-frame';
-
-/** Where to go after signing in: the page that sent the person here, if it was inside the app. */
-function returnPath(state: unknown): string {
-  const from = (state as { from?: unknown } | null)?.from;
-  return typeof from === 'string' && from.startsWith('/') && !from.startsWith('//') ? from : '/';
-}
 
 export default function SignInPage() {
   const navigate = useNavigate();
@@ -24,13 +19,7 @@ export default function SignInPage() {
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
 
   const serverError = signIn.error;
-  const formMessage =
-    serverError instanceof ApiRequestError && Object.keys(serverError.fields).length > 0 && serverError.status === 400
-      ? null
-      : serverError
-        ? errorMessage(serverError)
-        : null;
-  const serverFields = serverError instanceof ApiRequestError ? serverError.fields : {};
+  const { formMessage, fields: serverFields } = formErrorsFrom(serverError);
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();

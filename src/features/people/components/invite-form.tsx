@@ -9,7 +9,7 @@ import {
 import { Button } from '../../../components/button';
 import { SelectField, TextField } from '../../../components/field';
 import { FormError, FormSuccess } from '../../../components/form-error';
-import { ApiRequestError, errorMessage } from '../../../lib/api-client';
+import { formErrorsFrom } from '../../../lib/form-errors';
 import { fieldErrorsFromIssues } from '../../../lib/zod-fields';
 import { useInviteUser } from '../api/invite-user';
 
@@ -22,8 +22,7 @@ export function InviteForm() {
   const [sentTo, setSentTo] = useState<string | null>(null);
 
   const serverError = invite.error;
-  const serverFields = serverError instanceof ApiRequestError ? serverError.fields : {};
-  const formMessage = serverError && Object.keys(serverFields).length === 0 ? errorMessage(serverError) : null;
+  const { formMessage, fields: serverFields } = formErrorsFrom(serverError);
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();

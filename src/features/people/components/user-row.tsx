@@ -91,12 +91,12 @@ export function UserRow({ user, isYou }: { user: User; isYou: boolean }) {
                   size="sm"
                   variant="secondary"
                   busy={resend.isPending}
-                  busyLabel="Sending…"
+                  busyLabel="Resending…"
                   onClick={resendInvitation}
-                  aria-label={`Send new link to ${user.name}`}
+                  aria-label={`Resend invitation to ${user.name}`}
                   title="E-mail a fresh invitation link; the earlier one stops working"
                 >
-                  Send new link
+                  Resend invitation
                 </Button>
               )}
               {!isYou && (
