@@ -156,17 +156,17 @@ function fitRolloff(
   const lowestCorner = minimumLog10 - cornerLimitDecades;
   const highestCorner = maximumLog10 + cornerLimitDecades;
 
-  // Start: profile the corner over a coarse grid on at most 64 resolved points. For a given corner
+  // Start: profile the corner over a coarse grid on about 48 of the points. For a given corner
   // the best level is the mean of the points shifted by the roll-off, and the sum of squares
   // follows from the first two moments of the shifted values.
-  let stride = Math.max(1, Math.floor(n / 64));
+  let stride = Math.max(1, Math.floor(n / 48));
   let sampledResolved = 0;
   for (let i = 0; i < n; i += stride) if (!isBound[i]) sampledResolved++;
   if (sampledResolved < 3) stride = 1;
   let log10Corner = highestCorner;
   let level = 0;
   let startSum = Infinity;
-  const gridSteps = 32;
+  const gridSteps = 24;
   for (let g = 0; g <= gridSteps; g++) {
     const trialCorner = lowestCorner + ((highestCorner - lowestCorner) * g) / gridSteps;
     const inverseCornerSquared = 10 ** (-2 * trialCorner);

@@ -155,16 +155,23 @@ export function parseSweepCsv(input: string | Uint8Array | ArrayBuffer, options:
   const lineNumbers: number[] = [];
 
   const readNumber = (cells: string[], column: number, lineNumber: number): number => {
-    const raw = unquote(cells[column]);
+    const cell = cells[column];
+    const raw = cell.charCodeAt(0) === 34 /* " */ || cell.trim() !== cell ? unquote(cell) : cell;
+    // The common case first: a plain decimal number.
+    if (decimalNumber.test(raw)) {
+      const value = Number(raw);
+      if (Number.isFinite(value)) return value;
+    }
     const location = { file, row: lineNumber, column: headerCells[column] };
     if (raw === '') throw new EngineInputError('parseSweepCsv: the cell is empty, a number is required', location);
     if (notFinite.test(raw)) throw new EngineInputError(`parseSweepCsv: "${raw}" is not a finite number`, location);
-    let value: number;
-    if (decimalNumber.test(raw)) value = Number(raw);
-    else if (allowDecimalComma && decimalCommaNumber.test(raw)) value = Number(raw.replace(',', '.'));
-    else throw new EngineInputError(`parseSweepCsv: "${raw}" is not a number`, location);
-    if (!Number.isFinite(value)) throw new EngineInputError(`parseSweepCsv: "${raw}" overflows to infinity`, location);
-    return value;
+    if (decimalNumber.test(raw)) throw new EngineInputError(`parseSweepCsv: "${raw}" overflows to infinity`, location);
+    if (allowDecimalComma && decimalCommaNumber.test(raw)) {
+      const value = Number(raw.replace(',', '.'));
+      if (Number.isFinite(value)) return value;
+      throw new EngineInputError(`parseSweepCsv: "${raw}" overflows to infinity`, location);
+    }
+    throw new EngineInputError(`parseSweepCsv: "${raw}" is not a number`, location);
   };
 
   for (let i = headerIndex + 1; i < lines.length; i++) {
@@ -222,33 +229,38 @@ export function parseSweepCsv(input: string | Uint8Array | ArrayBuffer, options:
     });
   }
 
-  const order = frequencies.map((_, index) => index);
-  order.sort((a, b) => frequencies[a] - frequencies[b] || lineNumbers[a] - lineNumbers[b]);
+  const rowCount = frequencies.length;
+  const order = new Int32Array(rowCount);
+  let alreadyRising = true;
+  for (let i = 0; i < rowCount; i++) {
+    order[i] = i;
+    if (i > 0 && !(frequencies[i] > frequencies[i - 1])) alreadyRising = false;
+  }
+  // Equal frequencies keep file order, so the earlier line of a repeat comes first.
+  if (!alreadyRising) order.sort((a, b) => frequencies[a] - frequencies[b] || a - b);
 
-  // Group rows of equal frequency: an error, or averaged when asked.
-  const groups: number[][] = [];
-  for (const index of order) {
-    const last = groups[groups.length - 1];
-    if (last && frequencies[last[0]] === frequencies[index]) {
+  // Runs of equal frequency in sorted order: an error, or averaged when asked.
+  const runStarts: number[] = [];
+  for (let k = 0; k < rowCount; k++) {
+    if (k > 0 && frequencies[order[k]] === frequencies[order[k - 1]]) {
       if (!options.averageRepeats) {
         throw new EngineInputError(
-          `parseSweepCsv: frequency ${frequencies[index]} Hz is repeated (also on line ${lineNumbers[last[0]]}); ` +
+          `parseSweepCsv: frequency ${frequencies[order[k]]} Hz is repeated (also on line ${lineNumbers[order[k - 1]]}); ` +
             'remove the repeat or ask for repeats to be averaged',
-          { file, row: lineNumbers[index], column: 'frequency_hz' },
+          { file, row: lineNumbers[order[k]], column: 'frequency_hz' },
         );
       }
-      last.push(index);
-    } else {
-      groups.push([index]);
+      continue;
     }
+    runStarts.push(k);
   }
-  if (groups.length < 2) {
+  if (runStarts.length < 2) {
     throw new EngineInputError('parseSweepCsv: after averaging repeats the sweep has a single frequency; at least 2 are needed', {
       file, row: lineNumbers[0],
     });
   }
 
-  const count = groups.length;
+  const count = runStarts.length;
   const sweep: Sweep = {
     file,
     frequencyHz: new Float64Array(count),
@@ -260,28 +272,40 @@ export function parseSweepCsv(input: string | Uint8Array | ArrayBuffer, options:
     lineNumber: new Int32Array(count),
     repeatCount: new Int32Array(count),
   };
-  groups.forEach((group, point) => {
+  for (let point = 0; point < count; point++) {
+    const start = runStarts[point];
+    const end = point + 1 < count ? runStarts[point + 1] : rowCount;
+    const size = end - start;
+    const first = order[start];
+    sweep.frequencyHz[point] = frequencies[first];
+    sweep.lineNumber[point] = lineNumbers[first];
+    sweep.repeatCount[point] = size;
+    if (size === 1) {
+      sweep.vinVolts[point] = vins[first];
+      sweep.voutVolts[point] = vouts[first];
+      sweep.gain[point] = vouts[first] / vins[first];
+      if (sweep.phaseDeg) sweep.phaseDeg[point] = phases[first];
+      if (sweep.floorVolts) sweep.floorVolts[point] = floors[first];
+      continue;
+    }
     let vin = 0;
     let vout = 0;
     let floor = 0;
     let sine = 0;
     let cosine = 0;
-    for (const index of group) {
+    for (let k = start; k < end; k++) {
+      const index = order[k];
       vin += vins[index];
       vout += vouts[index];
       floor += floors[index];
       sine += Math.sin((phases[index] * Math.PI) / 180);
       cosine += Math.cos((phases[index] * Math.PI) / 180);
     }
-    const size = group.length;
-    sweep.frequencyHz[point] = frequencies[group[0]];
     sweep.vinVolts[point] = vin / size;
     sweep.voutVolts[point] = vout / size;
     sweep.gain[point] = vout / vin;
-    if (sweep.phaseDeg) sweep.phaseDeg[point] = size === 1 ? phases[group[0]] : (Math.atan2(sine, cosine) * 180) / Math.PI;
+    if (sweep.phaseDeg) sweep.phaseDeg[point] = (Math.atan2(sine, cosine) * 180) / Math.PI;
     if (sweep.floorVolts) sweep.floorVolts[point] = floor / size;
-    sweep.lineNumber[point] = Math.min(...group.map((index) => lineNumbers[index]));
-    sweep.repeatCount[point] = size;
-  });
+  }
   return sweep;
 }
