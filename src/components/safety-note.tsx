@@ -1,14 +1,17 @@
+import { useId } from 'react';
+
 /**
  * The standing caution about common-mode testing. Shown wherever a person prepares or reviews a
  * measurement; it is deliberately not dismissible.
  */
 export function SafetyNote({ className = '' }: { className?: string }) {
+  const titleId = useId();
   return (
     <aside
-      aria-labelledby="safety-note-title"
+      aria-labelledby={titleId}
       className={`rounded-lg border-l-4 border-amber-500 bg-amber-50 px-5 py-4 text-ink-900 ${className}`}
     >
-      <h2 id="safety-note-title" className="flex items-center gap-2 font-semibold text-amber-900">
+      <h2 id={titleId} className="flex items-center gap-2 font-semibold text-amber-900">
         <svg viewBox="0 0 20 20" className="h-5 w-5" aria-hidden="true">
           <path d="M10 2 19 18H1Z" fill="#e08e0b" stroke="#5c3a00" strokeWidth="1.2" strokeLinejoin="round" />
           <path d="M10 7.5v5" stroke="#16242e" strokeWidth="1.8" strokeLinecap="round" />
