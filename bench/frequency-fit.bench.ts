@@ -5,6 +5,7 @@
 // Run: node --import tsx bench/frequency-fit.bench.ts
 import { execFileSync } from 'node:child_process';
 import { cpus, loadavg } from 'node:os';
+import { levenbergMarquardt } from 'ml-levenberg-marquardt';
 import { pairCmrrPoints } from '../shared/engine/cmrr-points';
 import { analyzeSweeps, fitCmrrFrequencyResponse } from '../shared/engine/frequency-fit';
 import { parseSweepCsv } from '../shared/engine/sweep-file';
@@ -67,6 +68,27 @@ const result = fitCmrrFrequencyResponse(points);
 const fromArraysMs = timeMs(() => fitCmrrFrequencyResponse(pairCmrrPoints(differentialSweep, commonModeSweep).points));
 const fitOnlyMs = timeMs(() => fitCmrrFrequencyResponse(points));
 const withParsingMs = timeMs(() => analyzeSweeps(differential, commonMode), 15, 20);
+
+// The general-purpose package on the CMRR model alone (resolved points, analytic Jacobian), for
+// the record of why frequency-fit.ts has its own iteration.
+const resolved = points.filter((point) => !point.lowerBound);
+const resolvedLog10Hz = resolved.map((point) => Math.log10(point.frequencyHz));
+const resolvedCmrrDb = resolved.map((point) => point.cmrrDb);
+const packageFit = () =>
+  levenbergMarquardt(
+    { x: resolvedLog10Hz, y: resolvedCmrrDb },
+    ([levelDb, log10CornerHz]) => (x) => levelDb - 10 * Math.log10(1 + 10 ** (2 * (x - log10CornerHz))),
+    {
+      initialValues: [Math.max(...resolvedCmrrDb), 3],
+      jacobianFunction: ([, log10CornerHz]) => (x) => {
+        const u = 10 ** (2 * (x - log10CornerHz));
+        return [1, (20 * u) / (1 + u)];
+      },
+      errorTolerance: 1e-12,
+    },
+  );
+const packageMs = timeMs(packageFit, 5, 2);
+const packageResult = packageFit();
 
 // The same work in numpy/scipy: gains, CMRR, lower bounds, then the two log-domain fits with
 // analytic Jacobians and the one-sided residual for bounds, and the same 95 % half-widths.
@@ -144,6 +166,8 @@ const lines = [
   `  pair + fit from parsed arrays   ${format(fromArraysMs.median)} (${format(fromArraysMs.best)})   ${scipy ? format(scipy.fromArraysMs) : '   n/a'}   ${ratio(fromArraysMs.median, scipy?.fromArraysMs)}`,
   `  fit only (from points)          ${format(fitOnlyMs.median)} (${format(fitOnlyMs.best)})`,
   `  with CSV parsing (both files)   ${format(withParsingMs.median)} (${format(withParsingMs.best)})   ${scipy ? format(scipy.withParsingMs) : '   n/a'}   ${ratio(withParsingMs.median, scipy?.withParsingMs)} (numpy.loadtxt + scipy)`,
+  `  ml-levenberg-marquardt (CMRR)  ${format(packageMs.median)} (${packageResult.iterations} iterations; ` +
+    `dc CMRR ${packageResult.parameterValues[0].toFixed(6)} dB without the bounds)`,
   `  same answer: dc CMRR ours ${result.cmrrDcDb?.toFixed(6)} dB, scipy ${scipy?.cmrrDcDb.toFixed(6) ?? 'n/a'} dB; ` +
     `corner ours ${result.cmrrCornerHz?.toFixed(3)} Hz, scipy ${scipy?.cornerHz.toFixed(3) ?? 'n/a'} Hz`,
 ];
