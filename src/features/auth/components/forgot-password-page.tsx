@@ -4,6 +4,7 @@ import { forgotPasswordRequestSchema } from '../../../../shared/schemas/auth';
 import { Button } from '../../../components/button';
 import { TextField } from '../../../components/field';
 import { FormError, FormSuccess } from '../../../components/form-error';
+import { focusFirstInvalid } from '../../../lib/focus-first-invalid';
 import { formErrorsFrom } from '../../../lib/form-errors';
 import { fieldErrorsFromIssues } from '../../../lib/zod-fields';
 import { useRequestPasswordReset } from '../api/forgot-password';
@@ -24,6 +25,7 @@ export default function ForgotPasswordPage() {
     const parsed = forgotPasswordRequestSchema.safeParse({ email });
     if (!parsed.success) {
       setFieldErrors(fieldErrorsFromIssues(parsed.error.issues));
+      focusFirstInvalid(event.currentTarget);
       return;
     }
     setFieldErrors({});

@@ -7,6 +7,7 @@ import { TextField } from '../../../components/field';
 import { FormError } from '../../../components/form-error';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { ApiRequestError, errorMessage, isApiStatus } from '../../../lib/api-client';
+import { focusFirstInvalid } from '../../../lib/focus-first-invalid';
 import { formErrorsFrom } from '../../../lib/form-errors';
 import { formatDateTime } from '../../../lib/format-date';
 import { useAcceptLink } from '../api/accept-link';
@@ -51,7 +52,10 @@ function ChoosePassword({ token, link }: { token: string; link: LinkInfoResponse
     event.preventDefault();
     const found = checkNewPassword(password, repeat);
     setErrors(found);
-    if (found.password || found.repeat) return;
+    if (found.password || found.repeat) {
+      focusFirstInvalid(event.currentTarget);
+      return;
+    }
     accept.mutate({ token, password }, { onSuccess: () => navigate('/', { replace: true }) });
   }
 

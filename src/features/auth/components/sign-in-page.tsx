@@ -5,6 +5,7 @@ import { Button } from '../../../components/button';
 import { TextField } from '../../../components/field';
 import { FormError } from '../../../components/form-error';
 import { returnPath } from '../../../lib/return-path';
+import { focusFirstInvalid } from '../../../lib/focus-first-invalid';
 import { formErrorsFrom } from '../../../lib/form-errors';
 import { fieldErrorsFromIssues } from '../../../lib/zod-fields';
 import { useSignIn } from '../api/sign-in';
@@ -26,6 +27,7 @@ export default function SignInPage() {
     const parsed = signInRequestSchema.safeParse({ email, password });
     if (!parsed.success) {
       setFieldErrors(fieldErrorsFromIssues(parsed.error.issues));
+      focusFirstInvalid(event.currentTarget);
       return;
     }
     setFieldErrors({});

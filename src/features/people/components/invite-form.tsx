@@ -9,6 +9,7 @@ import {
 import { Button } from '../../../components/button';
 import { SelectField, TextField } from '../../../components/field';
 import { FormError, FormSuccess } from '../../../components/form-error';
+import { focusFirstInvalid } from '../../../lib/focus-first-invalid';
 import { formErrorsFrom } from '../../../lib/form-errors';
 import { fieldErrorsFromIssues } from '../../../lib/zod-fields';
 import { useInviteUser } from '../api/invite-user';
@@ -30,6 +31,7 @@ export function InviteForm() {
     const parsed = inviteRequestSchema.safeParse({ name, email, role });
     if (!parsed.success) {
       setFieldErrors(fieldErrorsFromIssues(parsed.error.issues));
+      focusFirstInvalid(event.currentTarget);
       return;
     }
     setFieldErrors({});
