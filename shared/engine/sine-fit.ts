@@ -7,9 +7,9 @@
 // with amplitude = sqrt(A² + B²) (peak) and phase = atan2(−B, A).
 //
 // Speed: the fits never call Math.sin/Math.cos per sample. The basis cos/sin is advanced by a
-// complex phasor rotation and re-anchored exactly every PHASOR_BLOCK samples, and the normal
-// equations are accumulated in one pass (block partial sums, which also keep the summation error
-// small). The residual comes from the normal-equation sums, in the quadratic form that is
+// complex phasor rotation and re-anchored exactly every PHASOR_BLOCK samples; only the sums that
+// involve the data are accumulated, in one pass (block partial sums, which also keep the summation
+// error small), while the data-free sums (Σcos, Σsin², …) come from closed forms. The residual comes from the normal-equation sums, in the quadratic form that is
 // insensitive to first-order errors in the solved coefficients; when the residual is so far below
 // the signal that cancellation could cost accuracy, a second pass fits what is left after
 // subtracting the first fit (one step of iterative refinement), where there is nothing to cancel.
@@ -71,9 +71,10 @@ export interface FourParameterOptions {
 // the unit of the partial sums that keep the accumulation error near sqrt(n)-growth.
 const PHASOR_BLOCK = 256;
 
-// Ratio sum(y²) / sum(residual²) above which the one-pass residual is refined by a second pass.
-// The one-pass residual loses about log10(ratio) of the ~16 digits; at 1e8 it still keeps about
-// 7 digits in the sum of squares (≈ 3.5 in the worst-ordered cases), so smaller ratios skip the pass.
+// Ratio Σy² / Σresidual² above which the one-pass residual is refined by a second pass. The
+// one-pass residual sum of squares carries a relative error of about this ratio times the rounding
+// error of Σy² (≈ 1e-16 times a small factor from the block sums): below 1e8 that is ≲ 1e-7, and
+// the residual RMS keeps about 7 digits without the extra pass.
 const REFINE_RATIO = 1e8;
 
 // Four-parameter fit: stop when the frequency step changes the phase at the record ends by less
@@ -392,8 +393,8 @@ function fitThree(
  * @param options sampleRateHz (Hz), frequencyHz (Hz, 0 < f < sampleRateHz/2), startTimeS (s, default 0)
  * @returns frequencyHz (Hz), amplitude (peak), phaseDeg (degrees, cosine convention, at t = 0),
  *   offset, residualRms, the coefficients A and B, sampleCount
- * Cost: O(n), one pass (two when the residual is below 1e-8 of the signal power), no per-sample
- * trigonometric calls.
+ * Cost: O(n), one pass (two when the residual RMS is below 1e-4 of the record's RMS about its
+ * first sample), no per-sample trigonometric calls.
  * Throws EngineInputError when there are fewer than 4 samples, the sample rate or frequency is out
  * of range, the samples hold NaN/Infinity, or the frequency cannot be resolved over the record.
  * Example: `fitSineThreeParameter(Float64Array.from({ length: 1000 }, (_, n) => 2 * Math.cos(2 * Math.PI * 50 * n / 1000) + 0.5), { sampleRateHz: 1000, frequencyHz: 50 })`

@@ -82,8 +82,16 @@ function fftInPlace(re: Float64Array, im: Float64Array): void {
 }
 
 /**
- * Squared magnitudes |X[k]|², k = 0 … M/2, of the DFT of the real sequence `real` (length M, a
- * power of two ≥ 4), computed with one complex FFT of M/2 points.
+ * Power spectrum of a real sequence: |X[k]|², X[k] = Σ x[n]·e^{−2πi·k·n/M}, k = 0 … M/2, for a
+ * length M that is a power of two ≥ 4. Radix-2 Cooley–Tukey FFT of the M/2 complex points
+ * x[2n] + i·x[2n+1], split into the real sequence's spectrum (the standard real-input packing,
+ * e.g. Numerical Recipes' realft — from memory).
+ *
+ * @param real samples (any unit u)
+ * @returns M/2 + 1 powers (unit u²)
+ * Cost: O(M log M).
+ * Throws RangeError when the length is not a power of two ≥ 4 (a programming error, not input).
+ * Example: `realPowerSpectrum(Float64Array.of(1, 0, -1, 0))` → [0, 4, 0].
  */
 export function realPowerSpectrum(real: Float64Array): Float64Array {
   const size = real.length;
