@@ -1,9 +1,11 @@
 // `node --import tsx server/mail/stand-in-main.ts`: the local mail stand-in as one process.
-import { defaults } from '../config';
+import { loadConfig } from '../config';
 import { startMailStandIn } from './local-stand-in';
 
-const port = Number(process.env.MAIL_STAND_IN_PORT || defaults.smtpPort);
-const dir = process.env.MAIL_STAND_IN_DIR || `${defaults.dataDir}/mail`;
+// The same folder and port the server reads them from.
+const config = loadConfig();
+const port = Number(new URL(config.smtpUrl).port);
+const dir = config.mailStandInDir;
 try {
   const standIn = await startMailStandIn({ port, dir });
   process.stdout.write(`mail stand-in: smtp://127.0.0.1:${standIn.port}, keeping messages in ${dir}\n`);
