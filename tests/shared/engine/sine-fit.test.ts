@@ -225,6 +225,19 @@ describe('fitSineThreeParameter', () => {
     expect(fit.frequencyHz).toBe(50.37);
   });
 
+  it('stays exact close to half the sample rate and at only 4 cycles', () => {
+    // Synthetic signals with known parameters: 0.9·cos(2πft + 63.025°) + 0.2 at 1 kHz sampling,
+    // f = 473.1 and 499.2 Hz (near Nyquist, where the closed-form sums use their reflected form)
+    // and 4 Hz over 1000 samples (4 cycles).
+    for (const [count, frequencyHz] of [[1001, 473.1], [1000, 499.2], [1000, 4]] as const) {
+      const samples = Float64Array.from({ length: count }, (_, n) => 0.9 * Math.cos((2 * Math.PI * frequencyHz * n) / 1000 + 1.1) + 0.2);
+      const fit = fitSineThreeParameter(samples, { sampleRateHz: 1000, frequencyHz });
+      expectRelative(fit.amplitude, 0.9, SYNTHETIC_RELATIVE);
+      expect(Math.abs(fit.phaseDeg - (1.1 * 180) / Math.PI)).toBeLessThan(SYNTHETIC_PHASE_DEG);
+      expectRelative(fit.offset, 0.2, SYNTHETIC_RELATIVE, 0.9);
+    }
+  });
+
   it('uses the cosine convention A·cos + B·sin with phase = atan2(−B, A)', () => {
     // Synthetic signal with known parameters: sin(ωt) = cos(ωt − 90°), so A = 0, B = 1, phase −90°.
     const samples = Float64Array.from({ length: 400 }, (_, n) => Math.sin((2 * Math.PI * 10.5 * n) / 400));
