@@ -86,7 +86,8 @@ function unquote(cell: string): string {
  * `phase_deg` and `floor_v`, in any order, case-insensitive; other columns are ignored), then one
  * row per test frequency. Lines starting with `#` and blank lines are skipped. The delimiter
  * (comma, semicolon or tab) is detected from the header; with semicolon or tab, a decimal comma
- * is accepted. Cells may be double-quoted. Rows in falling order are sorted.
+ * is accepted. Cells may be double-quoted (but may not contain the delimiter). Rows in falling
+ * order are sorted.
  *
  * Units: frequency in Hz, amplitudes and floor in volts (any one convention, peak or RMS, for
  * all of them), phase in degrees. Cost O(n log n) for n rows (the sort).

@@ -68,14 +68,14 @@ function modelPoints(options: ModelOptions): CmrrPoint[] {
   });
 }
 
-// The same log-domain model and one-sided residual for bounds, fitted by scipy.
-const scipyRolloffFit = `
+// The same log-domain model and one-sided residual for bounds, fitted by scipy; and Student t
+// quantiles. One python run for the whole file (starting scipy takes seconds on a busy machine).
+const scipyScript = `
 import json, sys, numpy as np
 from scipy.optimize import least_squares
 from scipy import stats
 d = json.load(sys.stdin)
-x = np.log10(np.array(d["frequencyHz"]))
-def fit(y, bound, start):
+def fit(x, y, bound, start):
     y = np.array(y); bound = np.array(bound, dtype=bool)
     def residuals(p):
         r = y - (p[0] - 10 * np.log10(1 + 10 ** (2 * (x - p[1]))))
@@ -94,9 +94,15 @@ def fit(y, bound, start):
     covariance = np.sum(r ** 2) / dof * np.linalg.inv(J.T @ J)
     half = stats.t.ppf(0.975, dof) * np.sqrt(np.diag(covariance))
     return {"level": solution.x[0], "log10Corner": solution.x[1], "half": half.tolist(), "active": int(active.sum())}
+def both(points):
+    x = np.log10(np.array(points["frequencyHz"]))
+    return {
+        "ad": fit(x, 20 * np.log10(points["ad"]), [False] * len(x), [20.0, float(x[-1])]),
+        "cmrr": fit(x, points["cmrrDb"], points["bound"], [float(np.max(points["cmrrDb"])), float(np.mean(x))]),
+    }
 print(json.dumps({
-    "ad": fit(20 * np.log10(d["ad"]), [False] * len(x), [20.0, float(x[-1])]),
-    "cmrr": fit(d["cmrrDb"], d["bound"], [float(np.max(d["cmrrDb"])), float(np.mean(x))]),
+    "fits": [both(points) for points in d["datasets"]],
+    "t": [[float(stats.t.ppf(p, n)) for n in d["degrees"]] for p in d["probabilities"]],
 }))
 `;
 
@@ -107,13 +113,38 @@ interface ScipyRolloff {
   active: number;
 }
 
-function scipyFit(points: CmrrPoint[]): { ad: ScipyRolloff; cmrr: ScipyRolloff } {
-  return runPython(scipyRolloffFit, {
-    frequencyHz: points.map((point) => point.frequencyHz),
-    ad: points.map((point) => point.ad),
-    cmrrDb: points.map((point) => point.cmrrDb),
-    bound: points.map((point) => point.lowerBound),
+const tProbabilities = [0.025, 0.6, 0.9, 0.975, 0.995];
+const tDegrees = [1, 2, 3, 4, 7, 12, 30, 120, 1998];
+// Noisy first-order data (invented): 92 dB, 3 kHz corner, fp = 80 kHz, 0.4 dB scatter.
+const noisyPoints = modelPoints({
+  frequencyHz: logSpaced(20, 500e3, 60), cmrrDcDb: 92, cornerHz: 3e3, bandwidthHz: 80e3, noiseDb: 0.4, seed: 7,
+});
+// The same with bounds: at the three lowest frequencies 30 dB under the curve (they must not
+// count), at the three highest 1.5 dB over it (they hold the curve up).
+const censoredFrequencyHz = logSpaced(20, 500e3, 60);
+const censoredPoints = modelPoints({
+  frequencyHz: censoredFrequencyHz, cmrrDcDb: 92, cornerHz: 3e3, noiseDb: 0.4, seed: 11,
+  bounds: new Map(
+    [0, 1, 2, 57, 58, 59].map((index) => [
+      index,
+      92 - 10 * Math.log10(1 + (censoredFrequencyHz[index] / 3e3) ** 2) + (index < 3 ? -30 : 1.5),
+    ]),
+  ),
+});
+
+let scipyCache: { fits: { ad: ScipyRolloff; cmrr: ScipyRolloff }[]; t: number[][] } | undefined;
+function scipyReferences() {
+  scipyCache ??= runPython(scipyScript, {
+    datasets: [noisyPoints, censoredPoints].map((points) => ({
+      frequencyHz: points.map((point) => point.frequencyHz),
+      ad: points.map((point) => point.ad),
+      cmrrDb: points.map((point) => point.cmrrDb),
+      bound: points.map((point) => point.lowerBound),
+    })),
+    probabilities: tProbabilities,
+    degrees: tDegrees,
   });
+  return scipyCache!;
 }
 
 describe('studentTQuantile', () => {
@@ -123,15 +154,9 @@ describe('studentTQuantile', () => {
   });
 
   it.skipIf(!hasNumpy)('agrees with scipy.stats.t.ppf across probabilities and degrees of freedom', () => {
-    const probabilities = [0.025, 0.6, 0.9, 0.975, 0.995];
-    const degrees = [1, 2, 3, 4, 7, 12, 30, 120, 1998];
-    const reference = runPython<number[][]>(
-      'import json, sys\nfrom scipy import stats\nd = json.load(sys.stdin)\n' +
-        'print(json.dumps([[float(stats.t.ppf(p, n)) for n in d["n"]] for p in d["p"]]))',
-      { p: probabilities, n: degrees },
-    );
-    probabilities.forEach((probability, i) =>
-      degrees.forEach((degreesOfFreedom, j) => {
+    const reference = scipyReferences().t; // scipy.stats.t.ppf(p, n), in scipyScript
+    tProbabilities.forEach((probability, i) =>
+      tDegrees.forEach((degreesOfFreedom, j) => {
         const value = studentTQuantile(probability, degreesOfFreedom);
         expect(Math.abs(value - reference[i][j])).toBeLessThan(QUANTILE_AGREEMENT * Math.max(1, Math.abs(reference[i][j])));
       }),
@@ -194,11 +219,8 @@ describe('fitCmrrFrequencyResponse', () => {
   });
 
   it.skipIf(!hasNumpy)('agrees with scipy.optimize.least_squares on noisy data: values and 95 % intervals', () => {
-    const points = modelPoints({
-      frequencyHz: logSpaced(20, 500e3, 60), cmrrDcDb: 92, cornerHz: 3e3, bandwidthHz: 80e3, noiseDb: 0.4, seed: 7,
-    });
-    const fit = fitCmrrFrequencyResponse(points);
-    const reference = scipyFit(points);
+    const fit = fitCmrrFrequencyResponse(noisyPoints);
+    const reference = scipyReferences().fits[0];
     expect(fit.model).toBe('first-order');
     expect(Math.abs(fit.cmrrDcDb! - reference.cmrr.level)).toBeLessThan(SOLVER_AGREEMENT);
     expect(Math.abs(Math.log10(fit.cmrrCornerHz!) - reference.cmrr.log10Corner)).toBeLessThan(SOLVER_AGREEMENT);
@@ -213,14 +235,8 @@ describe('fitCmrrFrequencyResponse', () => {
   });
 
   it.skipIf(!hasNumpy)('agrees with scipy on censored data, where active bounds count and inactive ones do not', () => {
-    // Bounds: at the three lowest frequencies 30 dB under the curve (they must not count), at the
-    // three highest 1.5 dB over it (they hold the curve up).
-    const frequencyHz = logSpaced(20, 500e3, 60);
-    const curveDb = (index: number) => 92 - 10 * Math.log10(1 + (frequencyHz[index] / 3e3) ** 2);
-    const bounds = new Map([0, 1, 2, 57, 58, 59].map((index) => [index, curveDb(index) + (index < 3 ? -30 : 1.5)]));
-    const points = modelPoints({ frequencyHz, cmrrDcDb: 92, cornerHz: 3e3, noiseDb: 0.4, seed: 11, bounds });
-    const fit = fitCmrrFrequencyResponse(points);
-    const reference = scipyFit(points);
+    const fit = fitCmrrFrequencyResponse(censoredPoints);
+    const reference = scipyReferences().fits[1];
     expect(fit.model).toBe('first-order');
     expect(fit.activeBoundCount).toBe(3);
     expect(fit.activePointCount).toBe(reference.cmrr.active);
