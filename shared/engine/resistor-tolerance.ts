@@ -12,12 +12,30 @@ export type ToleranceDistribution = 'uniform' | 'normal';
 /** The most trials one Monte Carlo run accepts (80 MB if the exact fallback must store them all). */
 export const MAXIMUM_MONTE_CARLO_TRIALS = 10_000_000;
 
-/** Options of {@link monteCarloCmrr}. */
+/**
+ * A resistor network with a tolerance per resistor, for designs that are not
+ * simply "ratio G, every resistor ±ε". Source resistances are exact and add in
+ * series with R1 and R3.
+ */
+export interface ToleranceNetwork {
+  r1Ohms: number;
+  r2Ohms: number;
+  r3Ohms: number;
+  r4Ohms: number;
+  /** Tolerance of R1…R4 as fractions, each 0 ≤ tol < 0.5 (0 for an exact part). */
+  toleranceFractions: readonly [number, number, number, number];
+  sourceResistance1Ohms?: number;
+  sourceResistance2Ohms?: number;
+}
+
+/** Options of {@link monteCarloCmrr}: either `gain` with `toleranceFraction`, or `network`. */
 export interface MonteCarloCmrrOptions {
-  /** Nominal gain G = R2/R1 = R4/R3 (> 0). */
-  gain: number;
+  /** Nominal gain G = R2/R1 = R4/R3 (> 0), every resistor within ±toleranceFraction. */
+  gain?: number;
   /** Tolerance of every resistor as a fraction, 0 < tol < 0.5 (0.001 for 0.1 %). */
-  toleranceFraction: number;
+  toleranceFraction?: number;
+  /** Instead of gain and toleranceFraction: nominal resistors with their own tolerances. */
+  network?: ToleranceNetwork;
   /** Number of trials, 1 … 10,000,000 (default 1,000,000). */
   trials?: number;
   /** Generator seed, a non-negative integer (default 1). */
@@ -101,6 +119,62 @@ export function worstCaseCmrrDb(gain: number, toleranceFraction: number): number
   return -magnitudeToDb(worstRatio);
 }
 
+/** Checks a network; returns nominal values, tolerances and source resistances as arrays. */
+function networkParts(functionName: string, network: ToleranceNetwork): { nominalOhms: number[]; tolerances: number[]; sourceOhms: [number, number] } {
+  const nominalOhms = [network.r1Ohms, network.r2Ohms, network.r3Ohms, network.r4Ohms];
+  nominalOhms.forEach((value, index) => {
+    if (!Number.isFinite(value) || value <= 0) {
+      throw new EngineInputError(`${functionName} requires r${index + 1}Ohms to be a finite resistance above 0 ohms, got ${value}`, {
+        field: `r${index + 1}Ohms`,
+      });
+    }
+  });
+  const tolerances = [...(network.toleranceFractions ?? [])];
+  if (tolerances.length !== 4) {
+    throw new EngineInputError(`${functionName} requires four tolerance fractions (R1…R4), got ${tolerances.length}`, {
+      field: 'toleranceFractions',
+    });
+  }
+  tolerances.forEach((value, index) => {
+    if (!Number.isFinite(value) || value < 0 || value >= 0.5) {
+      throw new EngineInputError(`${functionName} requires the tolerance of R${index + 1} to be a fraction from 0 to below 0.5, got ${value}`, {
+        field: `toleranceFractions[${index}]`,
+      });
+    }
+  });
+  const sourceOhms: [number, number] = [network.sourceResistance1Ohms ?? 0, network.sourceResistance2Ohms ?? 0];
+  sourceOhms.forEach((value, index) => {
+    if (!Number.isFinite(value) || value < 0) {
+      throw new EngineInputError(`${functionName} requires sourceResistance${index + 1}Ohms to be at least 0 ohms, got ${value}`, {
+        field: `sourceResistance${index + 1}Ohms`,
+      });
+    }
+  });
+  return { nominalOhms, tolerances, sourceOhms };
+}
+
+/**
+ * Exact worst-case CMRR of a given resistor network, each resistor within its
+ * own tolerance, source resistances exact (in series with R1 and R3): the
+ * minimum over the 16 corners (exact for the reason given at
+ * {@link worstCaseCmrrDb}). Ideal op-amp. O(16).
+ *
+ * @param network nominal R1…R4 (ohms), their tolerances (fractions), source resistances (ohms)
+ * @returns worst-case CMRR, dB (Infinity when every corner is perfectly matched, e.g. all tolerances 0 and matched ratios)
+ * @throws EngineInputError naming the resistor or tolerance
+ * @example worstCaseNetworkCmrrDb({ r1Ohms: 1e3, r2Ohms: 1e3, r3Ohms: 1e3, r4Ohms: 1e3, toleranceFractions: [0.01, 0.01, 0.01, 0.01] }) // → 33.98
+ */
+export function worstCaseNetworkCmrrDb(network: ToleranceNetwork): number {
+  const { nominalOhms, tolerances, sourceOhms } = networkParts('worstCaseNetworkCmrrDb', network);
+  let worstRatio = 0;
+  for (let corner = 0; corner < 16; corner++) {
+    const value = (index: number): number => nominalOhms[index] * ((corner >> index) & 1 ? 1 + tolerances[index] : 1 - tolerances[index]);
+    const ratio = commonModeToDifferentialRatio(value(0) + sourceOhms[0], value(1), value(2) + sourceOhms[1], value(3));
+    if (ratio > worstRatio) worstRatio = ratio;
+  }
+  return -magnitudeToDb(worstRatio);
+}
+
 /**
  * The textbook approximation of the worst case, `CMRR ≈ (1 + G)/(4ε)` (DOMAIN.md,
  * from memory). O(1).
@@ -163,6 +237,7 @@ const BRACKET_STANDARD_DEVIATIONS = 5;
 /**
  * Produces the trials' |Acm/Ad| values in order, block by block, from the
  * generator. Uniform: R = nominal·(1 + ε·(2u − 1)). Normal: R = nominal·(1 + (ε/3)·z)
+ * (plus the exact source resistance for R1 and R3)
  * with z from Marsaglia's polar method (Marsaglia and Bray 1964), which needs no
  * trigonometry.
  */
@@ -172,14 +247,31 @@ class RatioStream {
   private scratchCursor = 4 * BLOCK_TRIALS;
   private spareNormal = 0;
   private hasSpareNormal = false;
+  /** Per resistor: R = base + scale·x, with x = u32 (uniform) or a standard normal. */
+  private readonly base: Float64Array;
+  private readonly scale: Float64Array;
 
   constructor(
     seed: number,
-    private readonly gain: number,
-    private readonly toleranceFraction: number,
+    trialNetwork: TrialNetwork,
     private readonly distribution: ToleranceDistribution,
   ) {
     this.generator = createSeededRandom(seed);
+    this.base = new Float64Array(4);
+    this.scale = new Float64Array(4);
+    for (let index = 0; index < 4; index++) {
+      const nominal = trialNetwork.nominalOhms[index];
+      const tolerance = trialNetwork.tolerances[index];
+      const source = index === 0 ? trialNetwork.sourceOhms[0] : index === 2 ? trialNetwork.sourceOhms[1] : 0;
+      if (distribution === 'uniform') {
+        // R = n·(1 − ε) + (2·n·ε/2^32)·u32 covers n·[1 − ε, 1 + ε) in steps of 2nε/2^32.
+        this.base[index] = nominal * (1 - tolerance) + source;
+        this.scale[index] = (2 * nominal * tolerance) / 4294967296;
+      } else {
+        this.base[index] = nominal + source;
+        this.scale[index] = (nominal * tolerance) / 3;
+      }
+    }
   }
 
   /** Writes the next `count` (≤ BLOCK_TRIALS) ratios into `target[0 … count)`. */
@@ -191,15 +283,13 @@ class RatioStream {
   private nextUniform(target: Float64Array, count: number): void {
     const scratch = this.scratch;
     this.generator.fillUint32(scratch);
-    const gain = this.gain;
-    // R = 1 − ε + (2ε/2^32)·u32 covers [1 − ε, 1 + ε) in steps of 2ε/2^32.
-    const offset = 1 - this.toleranceFraction;
-    const step = (2 * this.toleranceFraction) / 4294967296;
+    const [base1, base2, base3, base4] = this.base;
+    const [scale1, scale2, scale3, scale4] = this.scale;
     for (let trial = 0, word = 0; trial < count; trial++, word += 4) {
-      const r1 = offset + step * scratch[word];
-      const r2 = gain * (offset + step * scratch[word + 1]);
-      const r3 = offset + step * scratch[word + 2];
-      const r4 = gain * (offset + step * scratch[word + 3]);
+      const r1 = base1 + scale1 * scratch[word];
+      const r2 = base2 + scale2 * scratch[word + 1];
+      const r3 = base3 + scale3 * scratch[word + 2];
+      const r4 = base4 + scale4 * scratch[word + 3];
       target[trial] = Math.abs((2 * (r1 * r4 - r2 * r3)) / (r4 * (r1 + r2) + r2 * (r3 + r4)));
     }
   }
@@ -229,13 +319,13 @@ class RatioStream {
   }
 
   private nextNormal(target: Float64Array, count: number): void {
-    const gain = this.gain;
-    const sigma = this.toleranceFraction / 3;
+    const [base1, base2, base3, base4] = this.base;
+    const [scale1, scale2, scale3, scale4] = this.scale;
     for (let trial = 0; trial < count; trial++) {
-      const r1 = 1 + sigma * this.standardNormal();
-      const r2 = gain * (1 + sigma * this.standardNormal());
-      const r3 = 1 + sigma * this.standardNormal();
-      const r4 = gain * (1 + sigma * this.standardNormal());
+      const r1 = base1 + scale1 * this.standardNormal();
+      const r2 = base2 + scale2 * this.standardNormal();
+      const r3 = base3 + scale3 * this.standardNormal();
+      const r4 = base4 + scale4 * this.standardNormal();
       target[trial] = Math.abs((2 * (r1 * r4 - r2 * r3)) / (r4 * (r1 + r2) + r2 * (r3 + r4)));
     }
   }
@@ -305,29 +395,55 @@ function interpolateDb(lowerRatio: number, upperRatio: number, fraction: number)
 
 const PERCENTS = [5, 50, 95] as const;
 
-function validateMonteCarlo(options: MonteCarloCmrrOptions): Required<Omit<MonteCarloCmrrOptions, 'limitDb'>> & { limitDb?: number } {
-  requireGain('monteCarloCmrr', options.gain);
-  requireTolerance('monteCarloCmrr', options.toleranceFraction);
+/** What the trials draw from: nominal R1…R4, their tolerances, and the source resistances. */
+interface TrialNetwork {
+  nominalOhms: number[];
+  tolerances: number[];
+  sourceOhms: [number, number];
+}
+
+interface MonteCarloSettings {
+  trialNetwork: TrialNetwork;
+  trials: number;
+  seed: number;
+  distribution: ToleranceDistribution;
+  limitDb?: number;
+}
+
+function validateMonteCarlo(functionName: string, options: MonteCarloCmrrOptions): MonteCarloSettings {
+  let trialNetwork: TrialNetwork;
+  if (options.network !== undefined) {
+    if (options.gain !== undefined || options.toleranceFraction !== undefined) {
+      throw new EngineInputError(`${functionName} takes either network or gain with toleranceFraction, not both`, { field: 'network' });
+    }
+    trialNetwork = networkParts(functionName, options.network);
+  } else {
+    requireGain(functionName, options.gain as number);
+    requireTolerance(functionName, options.toleranceFraction as number);
+    const gain = options.gain as number;
+    const tolerance = options.toleranceFraction as number;
+    trialNetwork = { nominalOhms: [1, gain, 1, gain], tolerances: [tolerance, tolerance, tolerance, tolerance], sourceOhms: [0, 0] };
+  }
   const trials = options.trials ?? 1_000_000;
   if (!Number.isInteger(trials) || trials < 1 || trials > MAXIMUM_MONTE_CARLO_TRIALS) {
-    throw new EngineInputError(`monteCarloCmrr requires a whole number of trials from 1 to ${MAXIMUM_MONTE_CARLO_TRIALS}, got ${trials}`, {
+    throw new EngineInputError(`${functionName} requires a whole number of trials from 1 to ${MAXIMUM_MONTE_CARLO_TRIALS}, got ${trials}`, {
       field: 'trials',
     });
   }
   const seed = options.seed ?? 1;
   if (!Number.isSafeInteger(seed) || seed < 0) {
-    throw new EngineInputError(`monteCarloCmrr requires a non-negative integer seed, got ${seed}`, { field: 'seed' });
+    throw new EngineInputError(`${functionName} requires a non-negative integer seed, got ${seed}`, { field: 'seed' });
   }
   const distribution = options.distribution ?? 'uniform';
   if (distribution !== 'uniform' && distribution !== 'normal') {
-    throw new EngineInputError(`monteCarloCmrr requires distribution "uniform" or "normal", got "${String(distribution)}"`, {
+    throw new EngineInputError(`${functionName} requires distribution "uniform" or "normal", got "${String(distribution)}"`, {
       field: 'distribution',
     });
   }
   if (options.limitDb !== undefined && !Number.isFinite(options.limitDb)) {
-    throw new EngineInputError(`monteCarloCmrr requires a finite limit in dB, got ${options.limitDb}`, { field: 'limitDb' });
+    throw new EngineInputError(`${functionName} requires a finite limit in dB, got ${options.limitDb}`, { field: 'limitDb' });
   }
-  return { gain: options.gain, toleranceFraction: options.toleranceFraction, trials, seed, distribution, limitDb: options.limitDb };
+  return { trialNetwork, trials, seed, distribution, limitDb: options.limitDb };
 }
 
 /**
@@ -340,12 +456,12 @@ function validateMonteCarlo(options: MonteCarloCmrrOptions): Required<Omit<Monte
  * @example monteCarloCmrrRatios({ gain: 1, toleranceFraction: 0.01, trials: 3 }).length // → 3
  */
 export function monteCarloCmrrRatios(options: MonteCarloCmrrOptions): Float64Array {
-  return allRatios(validateMonteCarlo(options));
+  return allRatios(validateMonteCarlo('monteCarloCmrrRatios', options));
 }
 
 /** Every trial's ratio in one array (small runs, and the fallback of the streaming pass). */
-function allRatios(settings: { gain: number; toleranceFraction: number; trials: number; seed: number; distribution: ToleranceDistribution }): Float64Array {
-  const stream = new RatioStream(settings.seed, settings.gain, settings.toleranceFraction, settings.distribution);
+function allRatios(settings: MonteCarloSettings): Float64Array {
+  const stream = new RatioStream(settings.seed, settings.trialNetwork, settings.distribution);
   const ratios = new Float64Array(settings.trials);
   const block = new Float64Array(BLOCK_TRIALS);
   for (let start = 0; start < settings.trials; start += BLOCK_TRIALS) {
@@ -440,9 +556,10 @@ function countAtMost(values: Float64Array, count: number, limitRatio: number): n
 
 /**
  * Seeded Monte Carlo of the difference amplifier's CMRR over resistor
- * tolerances (ideal op-amp, nominal R2/R1 = R4/R3 = G, each resistor drawn
- * independently: uniform within ±ε by default, normal with σ = ε/3 as an option,
- * DOMAIN.md). Each trial's |Acm/Ad| comes from the exact textbook relation;
+ * tolerances (ideal op-amp; nominal R2/R1 = R4/R3 = G with every resistor
+ * within ±ε, or a given network with a tolerance per resistor and exact source
+ * resistances; each resistor drawn independently: uniform within ±ε by default,
+ * normal with σ = ε/3 as an option, DOMAIN.md). Each trial's |Acm/Ad| comes from the exact textbook relation;
  * percentiles use numpy's default linear interpolation on CMRR in dB.
  *
  * Cost: O(trials) time. Runs above 4·16,384 trials keep only a sorted sample
@@ -452,12 +569,12 @@ function countAtMost(values: Float64Array, count: number, limitRatio: number): n
  * is regenerated from the same seed into one array and selected exactly. The
  * result is identical either way and depends only on the options.
  *
- * @throws EngineInputError naming the field: gain, toleranceFraction, trials
- *   (whole number 1 … 10,000,000), seed, distribution, limitDb
+ * @throws EngineInputError naming the field: gain, toleranceFraction (or the network's
+ *   resistor/tolerance), trials (whole number 1 … 10,000,000), seed, distribution, limitDb
  * @example monteCarloCmrr({ gain: 10, toleranceFraction: 0.001, seed: 1 }).p05Db // → about 74 dB
  */
 export function monteCarloCmrr(options: MonteCarloCmrrOptions): MonteCarloCmrrResult {
-  const settings = validateMonteCarlo(options);
+  const settings = validateMonteCarlo('monteCarloCmrr', options);
   const { trials } = settings;
   const plans = PERCENTS.map((percent) => planPercentile(trials, percent));
   const limitRatio = settings.limitDb === undefined ? undefined : 1 / dbToMagnitude(settings.limitDb);
@@ -479,7 +596,7 @@ export function monteCarloCmrr(options: MonteCarloCmrrOptions): MonteCarloCmrrRe
   };
   if (trials <= 4 * SAMPLE_TRIALS) return exactly();
 
-  const stream = new RatioStream(settings.seed, settings.gain, settings.toleranceFraction, settings.distribution);
+  const stream = new RatioStream(settings.seed, settings.trialNetwork, settings.distribution);
   const sample = new Float64Array(SAMPLE_TRIALS);
   for (let start = 0; start < SAMPLE_TRIALS; start += BLOCK_TRIALS) {
     stream.next(sample.subarray(start, start + BLOCK_TRIALS), BLOCK_TRIALS);

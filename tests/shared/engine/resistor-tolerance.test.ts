@@ -9,7 +9,10 @@ import {
   selectInPlace,
   toleranceForTargetCmrr,
   worstCaseCmrrDb,
+  worstCaseNetworkCmrrDb,
+  type ToleranceNetwork,
 } from '../../../shared/engine/resistor-tolerance';
+import { predictDifferenceAmplifier } from '../../../shared/engine/difference-amplifier';
 import { createSeededRandom } from '../../../shared/engine/seeded-random';
 import { hasNumpy, runPython } from '../../helpers/reference-tools';
 
@@ -192,6 +195,85 @@ describe('monteCarloCmrr', () => {
       expect(call).toThrowError(EngineInputError);
       expect(call).toThrowError(new RegExp(`field "${field}"`));
     }
+  });
+});
+
+describe('a network with a tolerance per resistor', () => {
+  const network: ToleranceNetwork = {
+    r1Ohms: 4.99e3,
+    r2Ohms: 49.9e3,
+    r3Ohms: 4.99e3,
+    r4Ohms: 49.9e3,
+    toleranceFractions: [0.001, 0.0005, 0.002, 0.001],
+    sourceResistance1Ohms: 10,
+    sourceResistance2Ohms: 25,
+  };
+
+  it('gives the same worst case as the gain form when every resistor has the same tolerance', () => {
+    const uniform: ToleranceNetwork = { r1Ohms: 1e3, r2Ohms: 1e4, r3Ohms: 1e3, r4Ohms: 1e4, toleranceFractions: [0.001, 0.001, 0.001, 0.001] };
+    expect(Math.abs(worstCaseNetworkCmrrDb(uniform) - worstCaseCmrrDb(10, 0.001))).toBeLessThan(1e-9);
+  });
+
+  it('reduces to the nominal prediction when every tolerance is zero', () => {
+    // Source imbalance alone, cross-checked with the node-equation model (itself checked against ngspice).
+    const exact: ToleranceNetwork = { ...network, toleranceFractions: [0, 0, 0, 0] };
+    const [nominal] = predictDifferenceAmplifier([0], {
+      r1Ohms: network.r1Ohms,
+      r2Ohms: network.r2Ohms,
+      r3Ohms: network.r3Ohms,
+      r4Ohms: network.r4Ohms,
+      sourceResistance1Ohms: 10,
+      sourceResistance2Ohms: 25,
+    });
+    expect(Math.abs(worstCaseNetworkCmrrDb(exact) - nominal.cmrrDb)).toBeLessThan(1e-9);
+    const result = monteCarloCmrr({ network: exact, trials: 1000 });
+    expect(Math.abs(result.p05Db - nominal.cmrrDb)).toBeLessThan(1e-9);
+    expect(Math.abs(result.p95Db - nominal.cmrrDb)).toBeLessThan(1e-9);
+  });
+
+  it('matches the gain form to rounding for the same seed when the network is the same design', () => {
+    const options = { trials: 100_000, seed: 21 };
+    const byGain = monteCarloCmrr({ gain: 10, toleranceFraction: 0.002, ...options });
+    const byNetwork = monteCarloCmrr({
+      network: { r1Ohms: 2e3, r2Ohms: 2e4, r3Ohms: 2e3, r4Ohms: 2e4, toleranceFractions: [0.002, 0.002, 0.002, 0.002] },
+      ...options,
+    });
+    expect(Math.abs(byNetwork.p50Db - byGain.p50Db)).toBeLessThan(1e-6);
+  });
+
+  it.skipIf(!hasNumpy)('agrees with a numpy run within 0.3 dB and never beats the worst case', () => {
+    const numpy = runPython<number[]>(
+      `
+import json, sys, numpy as np
+d = json.load(sys.stdin)
+rng = np.random.default_rng(2468)
+n = 1_000_000
+nominal, tol = np.array(d['nominal']), np.array(d['tol'])
+r = nominal * (1 + rng.uniform(-1, 1, size=(n, 4)) * tol)
+r1 = r[:, 0] + d['rs1']; r2 = r[:, 1]; r3 = r[:, 2] + d['rs2']; r4 = r[:, 3]
+acm = (r1 * r4 - r2 * r3) / (r1 * (r3 + r4))
+ad = (r4 * (r1 + r2) + r2 * (r3 + r4)) / (2 * r1 * (r3 + r4))
+print(json.dumps(np.percentile(20 * np.log10(np.abs(ad / acm)), [5, 50, 95]).tolist()))
+`,
+      { nominal: [4.99e3, 49.9e3, 4.99e3, 49.9e3], tol: network.toleranceFractions, rs1: 10, rs2: 25 },
+    );
+    const ours = monteCarloCmrr({ network, trials: 1_000_000, seed: 8642 });
+    expect(Math.abs(ours.p05Db - numpy[0])).toBeLessThan(MONTE_CARLO_AGREEMENT_DB);
+    expect(Math.abs(ours.p50Db - numpy[1])).toBeLessThan(MONTE_CARLO_AGREEMENT_DB);
+    expect(Math.abs(ours.p95Db - numpy[2])).toBeLessThan(MONTE_CARLO_AGREEMENT_DB);
+    expect(ours.p05Db).toBeGreaterThan(worstCaseNetworkCmrrDb(network));
+  });
+
+  it('names the bad part of a network and refuses a network together with a gain', () => {
+    expect(() => worstCaseNetworkCmrrDb({ ...network, r3Ohms: 0 })).toThrowError(/field "r3Ohms"/);
+    expect(() => worstCaseNetworkCmrrDb({ ...network, toleranceFractions: [0.1, 0.1, 0.5, 0.1] })).toThrowError(
+      /field "toleranceFractions\[2\]"/,
+    );
+    expect(() => worstCaseNetworkCmrrDb({ ...network, sourceResistance2Ohms: -1 })).toThrowError(/field "sourceResistance2Ohms"/);
+    expect(() =>
+      worstCaseNetworkCmrrDb({ ...network, toleranceFractions: [0.1, 0.1] as unknown as ToleranceNetwork['toleranceFractions'] }),
+    ).toThrowError(/four tolerance fractions/);
+    expect(() => monteCarloCmrr({ network, gain: 10, trials: 10 })).toThrowError(/either network or gain/);
   });
 });
 
