@@ -7,8 +7,9 @@
 // points, and it stops only on an absolute error threshold or its iteration limit, so on noisy data
 // it runs every iteration, each building ml-matrix objects. Measured here on the 1,000-point sweep of
 // bench/frequency-fit.bench.ts (CMRR model only, resolved points, its analytic-Jacobian option):
-// 26–80 ms for its 100 iterations (machine load varies), against about 0.3 ms for this whole analysis. The models
-// have two parameters and closed-form derivatives, so a loop over Float64Arrays is short.
+// 26–80 ms for its 100 iterations (machine load varies), against about 0.3 ms for this whole
+// analysis. The models have two parameters and closed-form derivatives, so a loop over
+// Float64Arrays is short.
 import { PolynomialRegression } from 'ml-regression-polynomial';
 import { gammaln, probit } from 'simple-statistics';
 import { pairCmrrPoints, type CmrrPoint } from './cmrr-points';
