@@ -2,6 +2,7 @@ import type { Logger } from 'pino';
 import type { SessionStore } from './auth/session-store';
 import type { ServerConfig } from './config';
 import type { Database } from './db';
+import type { SessionHub } from './live/session-hub';
 import type { Mailer } from './mail/mailer';
 
 /** What route handlers need, built once at start-up and passed to every router. */
@@ -12,6 +13,8 @@ export interface AppContext {
   mailer: Mailer;
   logger: Logger;
   version: string;
+  /** Live viewers of bench sessions. */
+  hub: SessionHub;
   /** Clock used for link expiry; tests replace it. */
   now: () => Date;
 }

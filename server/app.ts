@@ -7,8 +7,13 @@ import type { AppContext } from './app-context';
 import { requireSameOrigin } from './auth/middleware';
 import { errorHandler, notFound } from './http/errors';
 import { authRouter } from './routes/auth/router';
+import { designsRouter } from './routes/designs/router';
 import { devMailRouter } from './routes/dev-mail/router';
 import { healthRouter } from './routes/health/router';
+import { instrumentsRouter } from './routes/instruments/router';
+import { preferencesRouter } from './routes/preferences/router';
+import { sessionsRouter } from './routes/sessions/router';
+import { tokensRouter } from './routes/tokens/router';
 import { usersRouter } from './routes/users/router';
 
 export function createApp(context: AppContext): Express {
@@ -36,6 +41,11 @@ export function createApp(context: AppContext): Express {
   api.use('/auth', authRouter(context));
   api.use('/users', usersRouter(context));
   api.use('/dev/mail', devMailRouter(context));
+  api.use('/instruments', instrumentsRouter(context));
+  api.use('/designs', designsRouter(context));
+  api.use('/sessions', sessionsRouter(context));
+  api.use('/tokens', tokensRouter(context));
+  api.use('/preferences', preferencesRouter(context));
   api.use((request, _response, next) => next(notFound(`No API route ${request.method} ${request.originalUrl}`)));
   app.use('/api', api);
 

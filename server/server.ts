@@ -9,6 +9,9 @@ import { createSessionStore } from './auth/session-store';
 import type { ServerConfig } from './config';
 import { openDatabase } from './db';
 import { createMailer } from './mail/mailer';
+import { loadSessionAnalysis } from './analysis/load-session-analysis';
+import { createSessionHub } from './live/session-hub';
+import { attachStreamServer } from './live/stream-server';
 import { migrateToLatest } from './migrate';
 import { initializeModels } from './models';
 
@@ -32,26 +35,33 @@ export async function startServer(
   } catch (error) {
     await database.close();
     const reason = error instanceof Error ? error.message : String(error);
-    throw new Error(`Cannot reach PostgreSQL at ${redact(config.databaseUrl)}: ${reason}`);
+    throw new Error(`Cannot reach PostgreSQL at ${redact(config.databaseUrl)}: ${reason}`, { cause: error });
   }
   const applied = await migrateToLatest(database.sequelize);
   if (applied.length > 0) logger.info({ applied }, 'migrations applied');
   initializeModels(database.sequelize);
 
+  const now = options.now ?? (() => new Date());
   const context: AppContext = {
     config,
     database,
+    hub: createSessionHub({
+      refit: (sessionId) => loadSessionAnalysis({ database, now }, sessionId),
+      refitIntervalMs: 250,
+      onError: (error) => logger.error({ err: error }, 'live refit failed'),
+    }),
     sessions: createSessionStore(database.pool, { secureCookies: config.secureCookies }),
     mailer: createMailer({ smtpUrl: config.smtpUrl, from: config.mailFrom, localStandIn: config.mailIsLocalStandIn }),
     logger,
     version,
-    now: options.now ?? (() => new Date()),
+    now,
   };
   const app = createApp(context);
   const server: Server = await new Promise((resolve, reject) => {
     const listening = app.listen(config.port, config.host, () => resolve(listening));
     listening.once('error', reject);
   });
+  const streams = attachStreamServer(server, context);
   const port = (server.address() as AddressInfo).port;
   // Started on "any free port": links and the Origin check use the port we got.
   if (config.port === 0) config.appUrl = `http://${config.host}:${port}`;
@@ -60,6 +70,8 @@ export async function startServer(
     port,
     context,
     async close() {
+      await streams.close();
+      context.hub.close();
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       context.mailer.close();

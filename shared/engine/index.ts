@@ -28,3 +28,6 @@ export * from './sine-fit';
 export * from './spectrum-peak';
 export * from './capture-fit';
 export * from './capture-file';
+
+// Sweeps from any table (column mapping, units) and from stored readings
+export * from './sweep-table';

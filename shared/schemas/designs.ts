@@ -82,6 +82,8 @@ export const designRevisionInputSchema = z.object({
   changeNote: optionalText('Change note', 2000),
 });
 export type DesignRevisionInput = z.input<typeof designRevisionInputSchema>;
+/** A revision as validated (defaults filled in). */
+export type DesignRevisionData = z.output<typeof designRevisionInputSchema>;
 
 export const createDesignSchema = z.object({
   name: shortText('Design name', 120),
@@ -89,6 +91,7 @@ export const createDesignSchema = z.object({
   revision: designRevisionInputSchema,
 });
 export type CreateDesignInput = z.input<typeof createDesignSchema>;
+export type CreateDesignData = z.output<typeof createDesignSchema>;
 
 export interface DesignRevision {
   id: string;

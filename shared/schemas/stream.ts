@@ -1,5 +1,6 @@
 // The live-streaming protocol: JSON messages over one WebSocket at /ws (docs/STREAMING.md).
 import { z } from 'zod';
+import type { SessionAnalysis } from './analysis';
 import { sweepModeSchema } from './sweeps';
 
 /** Largest message the server reads, bytes; larger ones are refused and the socket closed. */
@@ -54,6 +55,8 @@ export type ServerMessage =
       points: { seq: number; frequencyHz: number; vinV: number; voutV: number; phaseDeg: number | null; floorV: number | null }[];
     }
   | { type: 'session-changed'; sessionId: string; reason: 'sweep-added' | 'sweep-deleted' | 'sweep-closed' | 'archived' }
+  /** The engine's refit of the session, sent to viewers at most every 250 ms while points arrive. */
+  | { type: 'session-analysis'; sessionId: string; analysis: SessionAnalysis }
   | { type: 'error'; message: string };
 
 /** WebSocket close codes used by the server. */

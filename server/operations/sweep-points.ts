@@ -1,0 +1,121 @@
+// Sweep points: written in batches by one statement each, read back for tables and analysis.
+import type { Sequelize, Transaction } from 'sequelize';
+import { QueryTypes } from 'sequelize';
+import type { SweepMode } from '../../shared/schemas/sweeps';
+
+export interface PointRow {
+  sequence: number;
+  frequencyHz: number;
+  vinV: number;
+  voutV: number;
+  phaseDeg: number | null;
+  floorV: number | null;
+  sourceLine: number | null;
+}
+
+/**
+ * Inserts points in one statement (unnest of column arrays). Points already stored for the same
+ * (sweep, sequence) are left as they were, so a resent batch is stored exactly once.
+ * Returns how many rows were new.
+ */
+export async function insertPoints(sequelize: Sequelize, sweepId: string, points: readonly PointRow[], transaction?: Transaction): Promise<number> {
+  if (points.length === 0) return 0;
+  const [, inserted] = (await sequelize.query(
+    `INSERT INTO sweep_points (sweep_id, sequence, frequency_hz, vin_v, vout_v, phase_deg, floor_v, source_line)
+     SELECT $1, * FROM unnest($2::int[], $3::float8[], $4::float8[], $5::float8[], $6::float8[], $7::float8[], $8::int[])
+     ON CONFLICT (sweep_id, sequence) DO NOTHING`,
+    {
+      bind: [
+        sweepId,
+        points.map((point) => point.sequence),
+        points.map((point) => point.frequencyHz),
+        points.map((point) => point.vinV),
+        points.map((point) => point.voutV),
+        points.map((point) => point.phaseDeg),
+        points.map((point) => point.floorV),
+        points.map((point) => point.sourceLine),
+      ],
+      transaction,
+      type: QueryTypes.INSERT,
+    },
+  )) as unknown as [unknown, number];
+  return inserted;
+}
+
+/**
+ * The highest sequence number n such that every point 1…n of the sweep is stored: what the
+ * stream may acknowledge. 0 when point 1 is missing.
+ */
+export async function contiguousThrough(sequelize: Sequelize, sweepId: string): Promise<number> {
+  const [row] = (await sequelize.query(
+    `SELECT count(*)::int AS count, coalesce(max(sequence), 0)::int AS highest FROM sweep_points WHERE sweep_id = $1`,
+    { bind: [sweepId], type: QueryTypes.SELECT },
+  )) as { count: number; highest: number }[];
+  if (row.count === row.highest) return row.highest;
+  const [gap] = (await sequelize.query(
+    `SELECT coalesce(min(sequence) - 1, 0)::int AS through FROM (
+       SELECT sequence, lag(sequence, 1, 0) OVER (ORDER BY sequence) AS previous FROM sweep_points WHERE sweep_id = $1
+     ) steps WHERE sequence <> previous + 1`,
+    { bind: [sweepId], type: QueryTypes.SELECT },
+  )) as { through: number }[];
+  return gap.through;
+}
+
+export interface SessionReadings {
+  mode: SweepMode;
+  sweepId: string;
+  frequencyHz: number;
+  vinV: number;
+  voutV: number;
+  phaseDeg: number | null;
+  floorV: number | null;
+  sequence: number;
+}
+
+/** Every point of a session's sweeps that are not deleted, by mode. */
+export async function sessionReadings(sequelize: Sequelize, sessionId: string): Promise<Record<SweepMode, SessionReadings[]>> {
+  const rows = (await sequelize.query(
+    `SELECT s.mode, p.sweep_id AS "sweepId", p.frequency_hz AS "frequencyHz", p.vin_v AS "vinV", p.vout_v AS "voutV",
+            p.phase_deg AS "phaseDeg", p.floor_v AS "floorV", p.sequence
+       FROM sweep_points p JOIN sweeps s ON s.id = p.sweep_id
+      WHERE s.bench_session_id = $1 AND s.deleted_at IS NULL
+      ORDER BY p.frequency_hz, s.created_at, p.sequence`,
+    { bind: [sessionId], type: QueryTypes.SELECT },
+  )) as SessionReadings[];
+  return {
+    differential: rows.filter((row) => row.mode === 'differential'),
+    'common-mode': rows.filter((row) => row.mode === 'common-mode'),
+  };
+}
+
+/** Point counts and frequency range per sweep. */
+export async function sweepPointStats(sequelize: Sequelize, sweepIds: string[]): Promise<Map<string, { count: number; minimumHz: number | null; maximumHz: number | null }>> {
+  if (sweepIds.length === 0) return new Map();
+  const rows = (await sequelize.query(
+    `SELECT sweep_id AS "sweepId", count(*)::int AS count, min(frequency_hz) AS "minimumHz", max(frequency_hz) AS "maximumHz"
+       FROM sweep_points WHERE sweep_id = ANY($1::text[]) GROUP BY sweep_id`,
+    { bind: [sweepIds], type: QueryTypes.SELECT },
+  )) as { sweepId: string; count: number; minimumHz: number; maximumHz: number }[];
+  return new Map(rows.map((row) => [row.sweepId, { count: row.count, minimumHz: row.minimumHz, maximumHz: row.maximumHz }]));
+}
+
+const sortColumns = { sequence: 'sequence', frequencyHz: 'frequency_hz', vinV: 'vin_v', voutV: 'vout_v', gain: 'vout_v / vin_v' } as const;
+
+/** One page of a sweep's points, sorted on the server. */
+export async function pagePoints(
+  sequelize: Sequelize,
+  sweepId: string,
+  query: { page: number; pageSize: number; sort: keyof typeof sortColumns; direction: 'asc' | 'desc' },
+): Promise<{ rows: PointRow[]; total: number }> {
+  const order = `${sortColumns[query.sort]} ${query.direction === 'desc' ? 'DESC' : 'ASC'}, sequence ASC`;
+  const rows = (await sequelize.query(
+    `SELECT sequence, frequency_hz AS "frequencyHz", vin_v AS "vinV", vout_v AS "voutV", phase_deg AS "phaseDeg", floor_v AS "floorV", source_line AS "sourceLine"
+       FROM sweep_points WHERE sweep_id = $1 ORDER BY ${order} LIMIT $2 OFFSET $3`,
+    { bind: [sweepId, query.pageSize, (query.page - 1) * query.pageSize], type: QueryTypes.SELECT },
+  )) as PointRow[];
+  const [{ total }] = (await sequelize.query(`SELECT count(*)::int AS total FROM sweep_points WHERE sweep_id = $1`, {
+    bind: [sweepId],
+    type: QueryTypes.SELECT,
+  })) as { total: number }[];
+  return { rows, total };
+}
