@@ -9,17 +9,9 @@ import {
   EngineInputError,
   fitCapture,
   parseCaptureFile,
-  type SweepColumnMapping,
 } from '../../shared/engine';
-import {
-  amplitudeToRmsVolts,
-  canonicalMapping,
-  captureTagsSchema,
-  frequencyUnits,
-  uploadSweepFieldsSchema,
-  type ColumnMapping,
-  type SweepMode,
-} from '../../shared/schemas/sweeps';
+import { engineColumnMapping } from '../../shared/sweep-mapping';
+import { canonicalMapping, captureTagsSchema, uploadSweepFieldsSchema, type SweepMode } from '../../shared/schemas/sweeps';
 import type { AppContext } from '../app-context';
 import { badRequest, conflict, fieldsFromZod, HttpError, notFound } from '../http/errors';
 import { BenchSession, Sweep, User, UserPreference } from '../models';
@@ -75,23 +67,6 @@ function runMulter(middleware: ReturnType<ReturnType<typeof multer>['single']>, 
 
 const sweepUpload = multer({ storage: delimitedRowsStorage(), limits: { fileSize: uploadLimits.sweepFileBytes, files: 1, fields: 20 } }).single('file');
 const captureUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: uploadLimits.captureFileBytes, files: uploadLimits.captureFiles, fields: 20 } }).array('files', uploadLimits.captureFiles);
-
-/** The engine's column mapping (with unit converters) for a stored mapping. */
-export function engineColumnMapping(mapping: ColumnMapping): SweepColumnMapping {
-  const amplitude = (column: ColumnMapping['vin']) => ({
-    column: column.column,
-    toSweepUnit: (value: number) => amplitudeToRmsVolts(value, column.unit, column.convention),
-    unitLabel: column.unit === 'dBV' ? 'dBV' : `${column.unit} ${column.convention}`,
-  });
-  const scale = frequencyUnits[mapping.frequency.unit];
-  return {
-    frequency: { column: mapping.frequency.column, toSweepUnit: (value) => value * scale, unitLabel: mapping.frequency.unit },
-    vin: amplitude(mapping.vin),
-    vout: amplitude(mapping.vout),
-    phase: mapping.phase ? { column: mapping.phase.column, unitLabel: 'degrees' } : null,
-    floor: mapping.floor ? amplitude(mapping.floor) : null,
-  };
-}
 
 async function requireOpenSession(sessionId: string): Promise<void> {
   const session = await BenchSession.findByPk(sessionId);

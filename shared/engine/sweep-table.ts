@@ -122,7 +122,10 @@ export interface DelimitedTable {
  * @throws EngineInputError when the text has no header line.
  * @example readDelimitedTable('# bench\nf;v\n1;2').header // ['f', 'v']
  */
-export function readDelimitedTable(text: string, options: { file?: string; maximumRows?: number; functionName?: string } = {}): DelimitedTable {
+export function readDelimitedTable(
+  text: string,
+  options: { file?: string; maximumRows?: number; functionName?: string; emptyMessage?: string } = {},
+): DelimitedTable {
   const functionName = options.functionName ?? 'readDelimitedTable';
   const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\n|\r/);
   let headerIndex = -1;
@@ -133,7 +136,7 @@ export function readDelimitedTable(text: string, options: { file?: string; maxim
       break;
     }
   }
-  if (headerIndex < 0) throw new EngineInputError(`${functionName}: the file is empty (no header line)`, { file: options.file });
+  if (headerIndex < 0) throw new EngineInputError(`${functionName}: ${options.emptyMessage ?? 'the file is empty (no header line)'}`, { file: options.file });
   const delimiter = detectDelimiter(lines[headerIndex]);
   const header = lines[headerIndex].split(delimiter).map(unquoteCell);
   const rows: DelimitedTable['rows'] = [];
@@ -237,7 +240,7 @@ export function createSweepAccumulator(options: SweepAccumulatorOptions): SweepA
       if (voutVolts < 0 || (voutVolts === 0 && !(floorVolts > 0))) {
         throw new EngineInputError(
           `${functionName}: output amplitude must be positive, got ${voutVolts}` +
-            (voutVolts === 0 ? ' (a zero reading is accepted only with a positive floor on the same row)' : ''),
+            (voutVolts === 0 ? ` (a zero reading is accepted only with a positive ${names.floor} on the same row)` : ''),
           at('vout'),
         );
       }
