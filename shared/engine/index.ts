@@ -31,3 +31,6 @@ export * from './capture-file';
 
 // Sweeps from any table (column mapping, units) and from stored readings
 export * from './sweep-table';
+
+// Simulated bench instrument
+export * from './simulated-amplifier';
