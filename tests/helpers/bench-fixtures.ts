@@ -1,0 +1,47 @@
+// Inputs for bench-data tests: a design of our own fictional board and sweep files made from
+// the engine's own prediction of it (so the expected CMRR is known exactly).
+import { predictDifferenceAmplifier } from '../../shared/engine';
+import type { CreateDesignInput } from '../../shared/schemas/designs';
+
+/** A gain-10 difference amplifier with a 0.1 % network (invented: test data). */
+export function testDesignInput(name = 'HRB-204 bridge front-end'): CreateDesignInput {
+  return {
+    name,
+    description: 'Load-cell bridge front-end, gain 10',
+    revision: {
+      label: 'A',
+      circuit: {
+        topology: 'difference-amplifier',
+        r1: { ohms: 1000, tolerance: 0.001 },
+        r2: { ohms: 10_000, tolerance: 0.001 },
+        r3: { ohms: 1000, tolerance: 0.001 },
+        r4: { ohms: 10_000, tolerance: 0.001 },
+        sourceResistance1Ohms: 0,
+        sourceResistance2Ohms: 0,
+        toleranceDistribution: 'uniform',
+        opAmp: { partNumber: 'HX-2207', openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 },
+      },
+      limitMask: { points: [{ frequencyHz: 10, minimumCmrrDb: 70 }, { frequencyHz: 100_000, minimumCmrrDb: 40 }], guardBandDb: 0 },
+      changeNote: '',
+    },
+  };
+}
+
+export const logSpacedHz = (count: number, startHz: number, stopHz: number) =>
+  Array.from({ length: count }, (_, index) => startHz * (stopHz / startHz) ** (index / (count - 1)));
+
+/**
+ * Differential and common-mode sweeps of a difference amplifier whose R4 is off by `mismatch`
+ * (fraction), as canonical CSV text with 1 V rms drive: vout = |A|·vin from the engine prediction.
+ */
+export function predictedSweepCsv(options: { mismatch: number; frequenciesHz: number[]; floorV?: number }) {
+  const points = predictDifferenceAmplifier(options.frequenciesHz, { r1Ohms: 1000, r2Ohms: 10_000, r3Ohms: 1000, r4Ohms: 10_000 * (1 + options.mismatch) });
+  const floor = options.floorV ?? null;
+  const header = floor === null ? 'frequency_hz,vin_v,vout_v' : 'frequency_hz,vin_v,vout_v,floor_v';
+  const row = (frequencyHz: number, gainDb: number) => [frequencyHz, 1, 10 ** (gainDb / 20), ...(floor === null ? [] : [floor])].join(',');
+  return {
+    differential: [header, ...points.map((point) => row(point.frequencyHz, point.adDb))].join('\n') + '\n',
+    commonMode: [header, ...points.map((point) => row(point.frequencyHz, point.acmDb))].join('\n') + '\n',
+    cmrrDb: points.map((point) => point.cmrrDb),
+  };
+}
