@@ -25,7 +25,11 @@ export interface TestApp {
   close(): Promise<void>;
 }
 
-export async function startTestApp(options: { seed?: boolean; env?: NodeJS.ProcessEnv } = {}): Promise<TestApp> {
+/**
+ * `seed`: 'accounts' (default) the three demo sign-ins; 'demo' also the fictional lab's designs,
+ * instruments and measured units; false nothing.
+ */
+export async function startTestApp(options: { seed?: 'accounts' | 'demo' | false; env?: NodeJS.ProcessEnv } = {}): Promise<TestApp> {
   const database: TestDatabase = await createTestDatabase();
   const mailDir = await mkdtemp(path.join(os.tmpdir(), 'rejectra-mail-'));
   const standIn: MailStandIn = await startMailStandIn({ port: 0, dir: mailDir });
@@ -45,7 +49,8 @@ export async function startTestApp(options: { seed?: boolean; env?: NodeJS.Proce
   };
   let clockOffset = 0;
   const server = await startServer(config, { logger: pino({ level: 'silent' }), now: () => new Date(Date.now() + clockOffset) });
-  if (options.seed !== false) await seedDemo(server.context.database.sequelize);
+  const seed = options.seed ?? 'accounts';
+  if (seed !== false) await seedDemo(server.context.database.sequelize, { scenario: seed === 'demo' });
 
   const mail = async () => {
     const summaries = await listMessages(mailDir);
