@@ -53,7 +53,7 @@ export async function contiguousThrough(sequelize: Sequelize, sweepId: string): 
   )) as { count: number; highest: number }[];
   if (row.count === row.highest) return row.highest;
   const [gap] = (await sequelize.query(
-    `SELECT coalesce(min(sequence) - 1, 0)::int AS through FROM (
+    `SELECT coalesce(min(previous), 0)::int AS through FROM (
        SELECT sequence, lag(sequence, 1, 0) OVER (ORDER BY sequence) AS previous FROM sweep_points WHERE sweep_id = $1
      ) steps WHERE sequence <> previous + 1`,
     { bind: [sweepId], type: QueryTypes.SELECT },
