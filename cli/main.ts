@@ -7,6 +7,7 @@ const commands: Record<string, () => Promise<{ run(args: string[]): Promise<numb
   analyze: () => import('./commands/analyze'),
   capture: () => import('./commands/capture'),
   predict: () => import('./commands/predict'),
+  stream: () => import('./commands/stream'),
   tolerance: () => import('./commands/tolerance'),
 };
 
@@ -18,6 +19,8 @@ commands:
   predict    --r1 OHMS --r2 OHMS --r3 OHMS --r4 OHMS [--rs1 OHMS --rs2 OHMS]
              [--open-loop-gain-db DB --gbw-hz HZ --opamp-cmrr-db DB --opamp-cmrr-corner-hz HZ]
              --frequencies F1,F2,... [--json]
+  stream     --url URL --token rjt_… --session ID --mode differential|common-mode
+             (--file SWEEP.csv | --simulate [--points N --seed S …]) [--rate N] [--batch N] [--json]
   tolerance  --gain G --tolerance FRACTION [--trials N] [--seed S]
              [--distribution uniform|normal] [--json]
 `;
