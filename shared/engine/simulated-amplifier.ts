@@ -2,7 +2,7 @@
 // fictional four-resistor difference amplifier, built from the engine's own prediction plus seeded
 // noise. It stands in for hardware when the bench client streams without an instrument attached.
 import { addComplex, complex, magnitudeComplex, phaseDegComplex, scaleComplex } from './complex';
-import { differenceAmplifierGains, validateOpAmpModel, type DifferenceAmplifierResistors, type OpAmpModel } from './difference-amplifier';
+import { predictDifferenceAmplifier, validateOpAmpModel, type DifferenceAmplifierResistors, type OpAmpModel } from './difference-amplifier';
 import { EngineInputError } from './errors';
 import { createSeededRandom } from './seeded-random';
 
@@ -98,8 +98,8 @@ export function simulatedAmplifierResistors(gain: number, mismatchFraction: numb
 /**
  * Simulates one sweep of a narrowband analyser on a fictional four-resistor difference amplifier.
  * The true output at each frequency is the drive times the engine's complex gain
- * (`differenceAmplifierGains`, the node equations with the DOMAIN.md op-amp model, op-amp term sign
- * as written): Ad for a differential sweep, Acm for a common-mode one. The detector adds complex
+ * (`predictDifferenceAmplifier`, the node equations with the DOMAIN.md op-amp model, op-amp term
+ * sign as written): Ad for a differential sweep, Acm for a common-mode one. The detector adds complex
  * Gaussian noise whose RMS magnitude is `noiseVolts` (each quadrature σ = noiseVolts/√2, drawn with
  * the Box–Muller transform from a xoshiro128** stream seeded by `seed`), so a reading is
  * `|G·drive + n|` with phase `arg(G·drive + n)` and a floor of `noiseVolts`: outputs below twice the
@@ -131,8 +131,10 @@ export function simulateAmplifierSweep(options: SimulatedAmplifierOptions): Simu
   const resistors = simulatedAmplifierResistors(gain, mismatchFraction, inputResistanceOhms);
   const quadratureSigmaVolts = noiseVolts / Math.SQRT2;
 
-  return frequencies.map((frequencyHz) => {
-    const gains = differenceAmplifierGains(resistors, frequencyHz, opAmp);
+  const prediction = predictDifferenceAmplifier(frequencies, resistors, opAmp);
+
+  return prediction.map((gains) => {
+    const { frequencyHz } = gains;
     const signal = scaleComplex(mode === 'differential' ? gains.differentialGain : gains.commonModeGain, driveVolts);
     // Box–Muller: two uniforms give two independent standard normals (one per quadrature).
     // Both are drawn even when noiseVolts is 0 so the stream position does not depend on it.
