@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from 'react';
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 const controlClasses =
   'block w-full rounded-md border bg-white px-3 py-2 text-base text-ink-900 placeholder:text-ink-500 ' +
@@ -86,6 +86,30 @@ export function SelectField({ label, hint, error, className = '', children, ...s
       >
         {children}
       </select>
+    </FieldFrame>
+  );
+}
+
+export type TextAreaFieldProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, 'id'> & {
+  label: string;
+  hint?: ReactNode;
+  error?: string;
+};
+
+export function TextAreaField({ label, hint, error, className = '', ...areaProps }: TextAreaFieldProps) {
+  const id = useId();
+  const hintId = `${id}-hint`;
+  const errorId = `${id}-error`;
+  return (
+    <FieldFrame id={id} label={label} hint={hint} hintId={hintId} error={error} errorId={errorId}>
+      <textarea
+        id={id}
+        rows={3}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hint && !error ? hintId : null, error ? errorId : null)}
+        className={`${controlClasses} ${error ? 'border-fault-600' : 'border-ink-300'} ${className}`}
+        {...areaProps}
+      />
     </FieldFrame>
   );
 }
