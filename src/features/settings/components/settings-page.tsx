@@ -4,10 +4,11 @@ import { roleDescriptions, roleLabels, type User } from '../../../../shared/sche
 import { PageHeader } from '../../../components/page-header';
 import { formatDateTime } from '../../../lib/format-date';
 
-export default function SettingsPage({ user }: { user: User }) {
+/** `children`: further sections the app adds below the account (access tokens). */
+export default function SettingsPage({ user, children }: { user: User; children?: ReactNode }) {
   return (
     <>
-      <PageHeader title="Settings" lead="Your Rejectra account." />
+      <PageHeader title="Settings" lead="Your Rejectra account and the tokens your bench programs use." />
       <section aria-labelledby="account-title" className="max-w-3xl rounded-lg border border-ink-200 bg-white">
         <h2 id="account-title" className="border-b border-ink-200 px-5 py-3 text-lg font-semibold text-ink-900">
           Account
@@ -44,6 +45,7 @@ export default function SettingsPage({ user }: { user: User }) {
           </li>
         </ul>
       </section>
+      {children}
     </>
   );
 }
