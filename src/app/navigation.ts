@@ -72,7 +72,7 @@ export const areas: readonly Area[] = [
     roles: ['lead'],
     needsMailStandIn: true,
   },
-  { id: 'settings', label: 'Settings', path: '/settings', summary: 'Your account.', group: 'account' },
+  { id: 'settings', label: 'Settings', path: '/settings', summary: 'Your account and access tokens for bench programs.', group: 'account' },
 ];
 
 /** Whether a role may open an area at all (regardless of how mail is configured). */

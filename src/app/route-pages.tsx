@@ -1,5 +1,5 @@
 import { lazy, type ReactNode } from 'react';
-import { Link, useRouteError } from 'react-router-dom';
+import { Link, useParams, useRouteError } from 'react-router-dom';
 import { NeedsRole } from '../components/needs-role';
 import { PageHeader } from '../components/page-header';
 import { ErrorState, LoadingState } from '../components/states';
@@ -12,12 +12,16 @@ import { useSignedInUser } from './signed-in-user';
 // Every page is its own download, fetched the first time it is opened.
 const OverviewPage = lazy(() => import('../features/overview/components/overview-page'));
 const DesignsPage = lazy(() => import('../features/designs/components/designs-page'));
-const SessionsPage = lazy(() => import('../features/sessions/components/sessions-page'));
+const DesignDetailPage = lazy(() => import('../features/designs/components/design-detail-page'));
+const SessionsPage = lazy(() => import('../features/bench-sessions/components/sessions-page'));
+const StartSessionPage = lazy(() => import('../features/bench-sessions/components/start-session-page'));
+const SessionDetailPage = lazy(() => import('../features/bench-sessions/components/session-detail-page'));
 const ComparePage = lazy(() => import('../features/compare/components/compare-page'));
 const InstrumentsPage = lazy(() => import('../features/instruments/components/instruments-page'));
 const PeoplePage = lazy(() => import('../features/people/components/people-page'));
 const MailboxPage = lazy(() => import('../features/mailbox/components/mailbox-page'));
 const SettingsPage = lazy(() => import('../features/settings/components/settings-page'));
+const TokensSection = lazy(() => import('../features/tokens/components/tokens-section'));
 export const SignInPage = lazy(() => import('../features/auth/components/sign-in-page'));
 export const ForgotPasswordPage = lazy(() => import('../features/auth/components/forgot-password-page'));
 export const LinkPage = lazy(() => import('../features/auth/components/link-page'));
@@ -67,11 +71,39 @@ export function DesignsRoute() {
   );
 }
 
+export function DesignDetailRoute() {
+  const user = useSignedInUser();
+  const { designId = '' } = useParams();
+  return (
+    <RoleGate id="designs">
+      <DesignDetailPage key={designId} designId={designId} role={user.role} />
+    </RoleGate>
+  );
+}
+
 export function SessionsRoute() {
   const user = useSignedInUser();
   return (
     <RoleGate id="sessions">
       <SessionsPage role={user.role} />
+    </RoleGate>
+  );
+}
+
+export function StartSessionRoute() {
+  return (
+    <RoleGate id="sessions">
+      <StartSessionPage />
+    </RoleGate>
+  );
+}
+
+export function SessionDetailRoute() {
+  const user = useSignedInUser();
+  const { sessionId = '' } = useParams();
+  return (
+    <RoleGate id="sessions">
+      <SessionDetailPage key={sessionId} sessionId={sessionId} user={user} />
     </RoleGate>
   );
 }
@@ -86,9 +118,10 @@ export function CompareRoute() {
 }
 
 export function InstrumentsRoute() {
+  const user = useSignedInUser();
   return (
     <RoleGate id="instruments">
-      <InstrumentsPage />
+      <InstrumentsPage role={user.role} />
     </RoleGate>
   );
 }
@@ -142,7 +175,9 @@ export function SettingsRoute() {
   const user = useSignedInUser();
   return (
     <RoleGate id="settings">
-      <SettingsPage user={user} />
+      <SettingsPage user={user}>
+        <TokensSection />
+      </SettingsPage>
     </RoleGate>
   );
 }

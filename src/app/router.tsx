@@ -5,6 +5,7 @@ import { AppShell } from './app-shell';
 import { RedirectIfSignedIn, RequireSession } from './require-session';
 import {
   CompareRoute,
+  DesignDetailRoute,
   DesignsRoute,
   ForgotPasswordPage,
   InstrumentsRoute,
@@ -14,9 +15,11 @@ import {
   OverviewRoute,
   PeopleRoute,
   RouteErrorPage,
+  SessionDetailRoute,
   SessionsRoute,
   SettingsRoute,
   SignInPage,
+  StartSessionRoute,
 } from './route-pages';
 
 function Root() {
@@ -75,7 +78,10 @@ export const router = createBrowserRouter([
             children: [
               { index: true, element: <OverviewRoute /> },
               { path: 'designs', element: <DesignsRoute /> },
+              { path: 'designs/:designId', element: <DesignDetailRoute /> },
               { path: 'sessions', element: <SessionsRoute /> },
+              { path: 'sessions/new', element: <StartSessionRoute /> },
+              { path: 'sessions/:sessionId', element: <SessionDetailRoute /> },
               { path: 'compare', element: <CompareRoute /> },
               { path: 'instruments', element: <InstrumentsRoute /> },
               { path: 'people', element: <PeopleRoute /> },
