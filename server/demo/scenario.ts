@@ -51,7 +51,7 @@ export const demoDesigns: { design: Omit<CreateDesignData, 'revision'>; revision
   {
     design: {
       name: 'Current-sense stage HRB-311',
-      description: `Three-op-amp instrumentation amplifier across a shunt on a 48 V rail. ${demoLab}.`,
+      description: `Three-op-amp instrumentation amplifier across a shunt on an 80 V motor rail. ${demoLab}.`,
     },
     revisions: [
       {
@@ -81,7 +81,7 @@ export const demoInstruments: Required<Omit<InstrumentInput, 'retired'>>[] = [
   { name: 'Tone generator TG-2', kind: 'signal generator', manufacturer: 'Halden Ridge', model: 'TG-2', serialNumber: 'TG2-10877', calibratedOn: '2026-03-02', calibrationDueOn: '2027-03-02', notes: 'Balanced output, 600 Ω.' },
   { name: 'Selective analyser SA-9', kind: 'audio analyser', manufacturer: 'Nordvik Test', model: 'SA-9', serialNumber: 'SA9-2231', calibratedOn: '2025-12-15', calibrationDueOn: '2026-12-15', notes: '1 Hz resolution bandwidth for common-mode readings.' },
   { name: 'Lock-in LI-3', kind: 'lock-in amplifier', manufacturer: 'Nordvik Test', model: 'LI-3', serialNumber: 'LI3-00412', calibratedOn: '2025-06-30', calibrationDueOn: '2026-06-30', notes: 'Sent for calibration; do not use for records.' },
-  { name: 'Differential probe DP-100', kind: 'differential probe', manufacturer: 'Halden Ridge', model: 'DP-100', serialNumber: 'DP100-0093', calibratedOn: '2026-08-01', calibrationDueOn: '2027-08-01', notes: '1000 V CAT II; for the 48 V rail tests.' },
+  { name: 'Differential probe DP-100', kind: 'differential probe', manufacturer: 'Halden Ridge', model: 'DP-100', serialNumber: 'DP100-0093', calibratedOn: '2026-08-01', calibrationDueOn: '2027-08-01', notes: '1000 V CAT II; for the 80 V rail tests.' },
   { name: 'Bridge fixture BF-2', kind: 'fixture', manufacturer: 'Halden Ridge (in-house)', model: 'BF-2', serialNumber: 'BF2-001', calibratedOn: null, calibrationDueOn: null, notes: 'Balanced 175 Ω source arms, matched to 0.1 Ω.' },
 ];
 
@@ -234,7 +234,7 @@ export function demoSessions(): DemoSession[] {
       measuredAt: day.toISOString(),
       differentialDrive,
       commonModeDrive,
-      notes: floorLimited ? 'Common-mode output at the analyser floor below about 200 Hz; readings there are bounds.' : fromCaptures ? 'Readings from two-channel captures (sine fits).' : '',
+      notes: floorLimited ? 'Common-mode output at the analyser floor below about 5 kHz; readings there are bounds.' : fromCaptures ? 'Readings from two-channel captures (sine fits).' : '',
       archived: unitIndex < 3,
       sweeps: [sweepsFor('differential'), sweepsFor('common-mode')],
     });
@@ -243,7 +243,7 @@ export function demoSessions(): DemoSession[] {
   return sessions;
 }
 
-/** Two units of the current-sense stage, measured on the 48 V rail (hazardous drive, acknowledged). */
+/** Two units of the current-sense stage, measured on the 80 V rail (hazardous drive, acknowledged). */
 function currentSenseSessions(random: SeededRandom): DemoSession[] {
   const design = demoDesigns[1];
   const revision = design.revisions[0];
@@ -285,19 +285,19 @@ function currentSenseSessions(random: SeededRandom): DemoSession[] {
       designName: design.design.name,
       revisionLabel: revision.label,
       unitSerial: serial,
-      fixture: 'Rail fixture RF-48 with isolated common-mode injection',
+      fixture: 'Rail fixture RF-80 with isolated common-mode injection',
       ambientTemperatureC: 24.0 + index * 0.4,
       instrumentSerials: ['TG2-10877', 'SA9-2231', 'DP100-0093'],
       operatorEmail: 'tech@rejectra.test',
       measuredAt: new Date(Date.UTC(2026, 10, 20 + index, 13, 40)).toISOString(),
       differentialDrive,
       commonModeDrive: demoHazardousDrive,
-      notes: 'Common-mode drive rides on the 48 V rail: differential probe only, bench behind the interlocked shield.',
+      notes: 'Common-mode drive rides on the 80 V rail: differential probe only, bench behind the interlocked shield.',
       archived: false,
       sweeps: [sweep('differential'), sweep('common-mode')],
     };
   });
 }
 
-/** The hazardous-drive sessions of the current-sense stage: 48 V dc rail plus a 1 V rms tone. */
-export const demoHazardousDrive: Drive = { acVolts: 1, acConvention: 'rms', dcVolts: 48 };
+/** The hazardous-drive sessions of the current-sense stage: 80 V dc motor rail plus a 1 V rms tone. */
+export const demoHazardousDrive: Drive = { acVolts: 1, acConvention: 'rms', dcVolts: 80 };

@@ -48,7 +48,7 @@ export async function startTestApp(options: { seed?: 'accounts' | 'demo' | false
     }),
   };
   let clockOffset = 0;
-  const server = await startServer(config, { logger: pino({ level: 'silent' }), now: () => new Date(Date.now() + clockOffset) });
+  const server = await startServer(config, { logger: pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' }), now: () => new Date(Date.now() + clockOffset) });
   const seed = options.seed ?? 'accounts';
   if (seed !== false) await seedDemo(server.context.database.sequelize, { scenario: seed === 'demo' });
 

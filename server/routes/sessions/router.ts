@@ -13,6 +13,7 @@ import { archiveSession, createBenchSession, deleteSweep } from '../../operation
 import { pagePoints, sweepPointStats } from '../../operations/sweep-points';
 import { presentBenchSessionDetail, presentBenchSessionSummary, presentSweep, type LoadedSession } from '../../presenters/bench-session';
 import { handleCaptureUpload, handleSweepUpload } from '../../uploads/sweep-uploads';
+import { loadSessionRecord, sendSessionCsv, sendSessionPdf } from './exports';
 
 const sessionIncludes = [
   { model: DesignRevision, as: 'designRevision', include: [{ model: Design, as: 'design' }] },
@@ -155,6 +156,38 @@ export function sessionsRouter(context: AppContext): Router {
     context.hub.publish(sessionId, { type: 'session-changed', sessionId, reason: 'sweep-deleted' });
     context.hub.requestRefit(sessionId);
     response.json({ sweep: presentSweep(loaded!, stats.get(sweep.id)) });
+  });
+
+  const sessionDetail = async (id: string) => {
+    const session = await loadSession(id);
+    const counts = await sweepCounts(context, [session.id]);
+    return presentBenchSessionDetail(session, counts.get(session.id)!, context.now());
+  };
+
+  router.get('/:id/export.csv', async (request, response) => {
+    const id = String(request.params.id);
+    sendSessionCsv(await loadSessionRecord(context, id, await sessionDetail(id)), response);
+  });
+
+  router.get('/:id/export.json', async (request, response) => {
+    const id = String(request.params.id);
+    const record = await loadSessionRecord(context, id, await sessionDetail(id));
+    const sweeps = await Sweep.findAll({ where: { benchSessionId: id }, include: [{ model: User, as: 'createdBy' }, { model: User, as: 'deletedBy' }], order: [['createdAt', 'ASC']] });
+    const stats = await sweepPointStats(sequelize, sweeps.map((sweep) => sweep.id));
+    const points = await Promise.all(sweeps.map((sweep) => pagePoints(sequelize, sweep.id, { page: 1, pageSize: 10_000_000, sort: 'sequence', direction: 'asc' })));
+    response.attachment(`${record.detail.unitSerial}.json`).json({
+      format: 'rejectra-session/1',
+      exportedAt: context.now().toISOString(),
+      session: record.detail,
+      design: record.design,
+      sweeps: sweeps.map((sweep, index) => ({ ...presentSweep(sweep, stats.get(sweep.id)), points: points[index].rows })),
+      analysis: record.analysis,
+    });
+  });
+
+  router.get('/:id/report.pdf', async (request, response) => {
+    const id = String(request.params.id);
+    await sendSessionPdf(context, await loadSessionRecord(context, id, await sessionDetail(id)), request, response);
   });
 
   router.get('/:id/analysis', async (request, response) => {
