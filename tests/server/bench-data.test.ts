@@ -113,7 +113,7 @@ describe('bench sessions', () => {
   it('pages, sorts and filters the session list on the server', async () => {
     const design = await newDesign('Paging board');
     for (const serial of ['HRB204-0301', 'HRB204-0303', 'HRB204-0302']) {
-      (await newSession(design.revisions[0].id, 'tech@rejectra.test', { unitSerial: serial })).created.status === 201 || expect.fail('session not created');
+      expect((await newSession(design.revisions[0].id, 'tech@rejectra.test', { unitSerial: serial })).created.status).toBe(201);
     }
     const lead = await signedIn('lead@rejectra.test');
     const page = await lead.get(`/api/sessions?designId=${design.id}&sort=unitSerial&direction=asc&pageSize=2&page=1`);
