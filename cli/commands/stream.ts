@@ -11,8 +11,7 @@ import type { OpAmpModel } from '../../shared/engine/difference-amplifier';
 import { EngineInputError } from '../../shared/engine/errors';
 import { simulateAmplifierSweep, type SimulatedAmplifierOptions } from '../../shared/engine/simulated-amplifier';
 import { parseSweepCsv } from '../../shared/engine/sweep-file';
-import { maximumPointsPerMessage } from '../../shared/schemas/stream';
-import { StreamRefusedError, streamSweep, type ReadingToStream, type StreamProgress } from '../stream/stream-client';
+import { maximumPointsPerMessage, StreamRefusedError, streamSweep, type ReadingToStream, type StreamProgress } from '../stream/stream-client';
 
 const usage = `usage: rejectra stream --url http://HOST:PORT --token rjt_… --session SESSION_ID
          --mode differential|common-mode (--file SWEEP.csv | --simulate [options])

@@ -4,7 +4,13 @@
 // acknowledgedThrough + 1. Refusals the server states (bad token, forbidden or missing session,
 // malformed message) are final: they end the stream with the server's own message.
 import WebSocket from 'ws';
-import { maximumPointsPerMessage } from '../../shared/schemas/stream';
+
+/**
+ * Most points one `points` message may carry: the protocol's limit, `maximumPointsPerMessage` of
+ * shared/schemas/stream.ts (tests/cli/stream.test.ts checks they agree). Not imported from there:
+ * that module loads zod, which would double the CLI's start-up time.
+ */
+export const maximumPointsPerMessage = 5000;
 
 /** One reading to stream; `seq` is its index + 1 in the points array. */
 export interface ReadingToStream {
@@ -111,7 +117,8 @@ export function streamSweep(options: StreamSweepOptions): { done: Promise<Stream
   let socket: WebSocket | null = null;
   let lastError: string | null = null;
   let failedAttempts = 0;
-  let lastOpenedAt = performance.now();
+  /** When the current run of failed connections began (null while connected and streaming). */
+  let failingSince: number | null = null;
   let pumpTimer: NodeJS.Timeout | null = null;
   let retryTimer: NodeJS.Timeout | null = null;
   let silenceTimer: NodeJS.Timeout | null = null;
@@ -204,7 +211,8 @@ export function streamSweep(options: StreamSweepOptions): { done: Promise<Stream
 
   const scheduleReconnect = (why: string) => {
     if (finished) return;
-    if (performance.now() - lastOpenedAt > retryForMs) {
+    failingSince ??= performance.now();
+    if (performance.now() - failingSince > retryForMs) {
       finish({ error: new Error(`gave up after ${Math.round(retryForMs / 1000)} s without a working connection to ${endpoint}: ${why}`) });
       return;
     }
@@ -234,6 +242,7 @@ export function streamSweep(options: StreamSweepOptions): { done: Promise<Stream
       current.terminate();
       if (status >= 500) httpRefusal = null;
     });
+    current.on('open', armSilenceTimer);
     current.on('error', (error) => {
       lastError = lastError ?? error.message;
     });
@@ -257,7 +266,7 @@ export function streamSweep(options: StreamSweepOptions): { done: Promise<Stream
           nextSeq = through + 1;
           opened = true;
           failedAttempts = 0;
-          lastOpenedAt = performance.now();
+          failingSince = null;
           armSilenceTimer();
           pump();
           return;

@@ -10,6 +10,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { freePort } from '../../scripts/lib/postgres-cluster';
 import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier';
 import { parseSweepCsv } from '../../shared/engine/sweep-file';
+import { maximumPointsPerMessage as clientLimit } from '../../cli/stream/stream-client';
+import { maximumPointsPerMessage } from '../../shared/schemas/stream';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
@@ -68,6 +70,11 @@ describe.concurrent('rejectra stream argument errors', () => {
     expect(run.status).toBe(2);
     expect(run.stderr).toMatch(message);
     expect(run.stdout).toBe('');
+  });
+
+  it("keeps the client's batch limit equal to the protocol's", () => {
+    // The protocol's limit (docs/STREAMING.md: at most 5,000 points per message).
+    expect(clientLimit).toBe(maximumPointsPerMessage);
   });
 
   it('reports a malformed sweep file with its row and column, exit 1', async () => {
