@@ -11,6 +11,7 @@ import { SafetyNote } from '../../../components/safety-note';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/states';
 import { errorMessage, isApiStatus } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format-date';
+import { revisionName } from '../../../lib/format-revision';
 import { formatVolts } from '../../../lib/format-number';
 import { useUrlState } from '../../../lib/url-state';
 import { useArchiveSession } from '../api/archive-session';
@@ -93,7 +94,7 @@ function SessionBody({ detail, user, live, notice }: { detail: BenchSessionDetai
         title={`Unit ${detail.unitSerial}`}
         lead={
           <>
-            {detail.design.name}, revision {detail.designRevision.label} · measured by {detail.operator.name} on{' '}
+            {detail.design.name}, {revisionName(detail.designRevision.label)} · measured by {detail.operator.name} on{' '}
             <span className="tabular">{formatDateTime(detail.measuredAt)}</span>
           </>
         }
@@ -121,7 +122,7 @@ function SessionBody({ detail, user, live, notice }: { detail: BenchSessionDetai
           <Card title="Set-up">
             <dl className="divide-y divide-ink-100">
               <Row term="Design">
-                {detail.design.name}, revision {detail.designRevision.label} <span className="tabular text-ink-600">r{detail.designRevision.revision}</span>
+                {detail.design.name}, {revisionName(detail.designRevision.label)} <span className="tabular text-ink-600">r{detail.designRevision.revision}</span>
               </Row>
               <Row term="Fixture">{detail.fixture}</Row>
               <Row term="Ambient temperature">{detail.ambientTemperatureC === null ? '—' : <span className="tabular">{detail.ambientTemperatureC} °C</span>}</Row>

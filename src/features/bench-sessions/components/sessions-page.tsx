@@ -10,6 +10,7 @@ import { EmptyState, ErrorState, LoadingState } from '../../../components/states
 import { cellClasses, headCellClasses, headClasses, Pager, SortHeader, TableFrame } from '../../../components/table';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format-date';
+import { revisionName } from '../../../lib/format-revision';
 import { positiveInteger, useUrlState } from '../../../lib/url-state';
 import { useDesignChoices } from '../api/get-design-choices';
 import { useSessions } from '../api/get-sessions';
@@ -40,7 +41,7 @@ export default function SessionsPage({ role }: { role: Role }) {
   const filtered = Boolean(query.status || query.search || query.designId || query.designRevisionId);
   const revisionFilterName = (() => {
     const first = sessions.data?.items[0];
-    return query.designRevisionId && first ? `${first.design.name}, revision ${first.designRevision.label}` : 'one design revision';
+    return query.designRevisionId && first ? `${first.design.name}, ${revisionName(first.designRevision.label)}` : 'one design revision';
   })();
 
   function handleSearch(event: FormEvent<HTMLFormElement>) {
@@ -179,7 +180,7 @@ export default function SessionsPage({ role }: { role: Role }) {
                       <span className="block text-[0.9375rem] font-normal text-ink-600">{session.fixture}</span>
                     </th>
                     <td className={cellClasses}>
-                      {session.design.name} <span className="text-ink-600">rev {session.designRevision.label}</span>
+                      {session.design.name} <span className="text-ink-600">{revisionName(session.designRevision.label)}</span>
                     </td>
                     <td className={cellClasses}>{session.operator.name}</td>
                     <td className={`${cellClasses} tabular whitespace-nowrap`}>{formatDateTime(session.measuredAt)}</td>

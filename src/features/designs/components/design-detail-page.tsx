@@ -8,6 +8,7 @@ import { PageHeader } from '../../../components/page-header';
 import { ErrorState, LoadingState } from '../../../components/states';
 import { errorMessage, isApiStatus } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format-date';
+import { revisionName } from '../../../lib/format-revision';
 import { formatDb, formatHz, formatOhms, formatPercent } from '../../../lib/format-number';
 import { useDesign } from '../api/get-design';
 import { DesignForm } from './design-form';
@@ -88,7 +89,7 @@ function RevisionCard({ revision, latest }: { revision: DesignRevision; latest: 
     <section aria-labelledby={`revision-${revision.id}`} className="rounded-lg border border-ink-200 bg-white">
       <header className="flex flex-wrap items-baseline justify-between gap-3 border-b border-ink-200 px-5 py-3">
         <h2 id={`revision-${revision.id}`} className="text-lg font-semibold text-ink-900">
-          Revision {revision.label} <span className="tabular font-normal text-ink-600">r{revision.revision}</span>
+          {revisionName(revision.label, true)} <span className="tabular font-normal text-ink-600">r{revision.revision}</span>
           {latest && <span className="ml-2 rounded bg-trace-100 px-1.5 py-0.5 align-middle text-sm font-medium text-trace-800">latest</span>}
         </h2>
         <p className="text-[0.9375rem] text-ink-700">

@@ -5,6 +5,7 @@ import { SelectField, TextAreaField, TextField } from '../../../components/field
 import { FormError } from '../../../components/form-error';
 import { focusFirstInvalid } from '../../../lib/focus-first-invalid';
 import { formErrorsFrom } from '../../../lib/form-errors';
+import { revisionName } from '../../../lib/format-revision';
 import { useAddDesignRevision } from '../api/add-design-revision';
 import { useCreateDesign } from '../api/create-design';
 import {
@@ -83,8 +84,8 @@ export function DesignForm({ design, onSaved, onCancel }: { design?: DesignDetai
       <h2 className="text-lg font-semibold text-ink-900">{title}</h2>
       {design && latest && (
         <p className="mt-1 max-w-3xl text-[0.9375rem] text-ink-700">
-          Starts from revision {latest.label} (r{latest.revision}). Saving creates a <strong className="font-semibold">new revision</strong>; revision{' '}
-          {latest.label} and the bench sessions measured against it stay exactly as they are.
+          Starts from {revisionName(latest.label)} (r{latest.revision}). Saving creates a <strong className="font-semibold">new revision</strong>;{' '}
+          {revisionName(latest.label)} and the bench sessions measured against it stay exactly as they are.
         </p>
       )}
       <form noValidate onSubmit={handleSubmit} className="mt-4 space-y-6" aria-label={title}>

@@ -70,9 +70,8 @@ export default function DesignsPage({ role }: { role: Role }) {
                   </th>
                   <td className={cellClasses}>
                     <span className="font-medium">{design.latestRevision.label}</span>{' '}
-                    <span className="tabular text-ink-600">
-                      r{design.latestRevision.revision} · {formatDateTime(design.latestRevision.createdAt)}
-                    </span>
+                    <span className="tabular text-ink-600">r{design.latestRevision.revision}</span>
+                    <span className="tabular block text-ink-600">{formatDateTime(design.latestRevision.createdAt)}</span>
                   </td>
                   <td className={cellClasses}>{topologyLabels[design.latestRevision.topology]}</td>
                   <td className={`${cellClasses} tabular text-right`}>{design.revisionCount}</td>
