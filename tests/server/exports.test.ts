@@ -98,3 +98,21 @@ describe('GET /api/sessions/:id/export.csv and export.json', () => {
     expect((await request(app.url).get('/api/sessions/x/export.csv')).status).toBe(401);
   });
 });
+
+describe('GET /api/designs/:id/revisions/:revisionId/lot', () => {
+  it('lists every unit of the demo lot with its analysis, and exports the lot as CSV', async () => {
+    const designs = (await lead.get('/api/designs')).body.designs as { id: string; name: string }[];
+    const bridge = designs.find((design) => design.name === 'LC-Bridge front-end board HRB-204')!;
+    const detail = (await lead.get(`/api/designs/${bridge.id}`)).body.design;
+    const revC = detail.revisions.find((revision: { label: string }) => revision.label === 'rev C');
+    const lot = (await lead.get(`/api/designs/${bridge.id}/revisions/${revC.id}/lot`)).body.lot;
+    // server/demo/scenario.ts: units 1–8 are rev C.
+    expect(lot.units.map((unit: { unitSerial: string }) => unit.unitSerial)).toEqual(Array.from({ length: 8 }, (_, index) => `HRB204-000${index + 1}`));
+    expect(lot.units.every((unit: { analysis: { status: string } }) => unit.analysis.status === 'complete')).toBe(true);
+    const csv = await lead.get(`/api/designs/${bridge.id}/revisions/${revC.id}/lot/export.csv`);
+    const data = csv.text.trim().split('\n').filter((line) => !line.startsWith('#'));
+    expect(data[0]).toBe('unit_serial,session_id,measured_at,frequency_hz,cmrr_db,lower_bound,limit_db,margin_db,outcome');
+    expect(data.length - 1).toBe(lot.units.reduce((sum: number, unit: { analysis: { points: unknown[] } }) => sum + unit.analysis.points.length, 0));
+    expect((await lead.get(`/api/designs/${bridge.id}/revisions/00000000-0000-4000-8000-000000000000/lot`)).status).toBe(404);
+  });
+});

@@ -7,6 +7,8 @@ import { validateBody } from '../../http/validate';
 import { Design, DesignRevision } from '../../models';
 import { addDesignRevision, createDesign, loadDesignWithRevisions, sessionCountsByRevision } from '../../operations/designs';
 import { presentDesignDetail, presentDesignRevision, presentDesignSummary } from '../../presenters/design';
+import { loadLot } from '../../analysis/lot';
+import { csvDocument, safeFileName } from '../../exports/csv';
 
 export function designsRouter(context: AppContext): Router {
   const router = Router();
@@ -42,6 +44,43 @@ export function designsRouter(context: AppContext): Router {
     const loaded = await loadDesignWithRevisions(designId);
     const written = loaded!.revisions.find((candidate) => candidate.id === revision.id)!;
     response.status(201).json({ revision: presentDesignRevision(written, 0), design: presentDesignDetail(loaded!.design, loaded!.revisions, loaded!.sessionCounts) });
+  });
+
+  const lotOf = async (designId: string, revisionId: string) => {
+    const revision = await DesignRevision.findOne({ where: { id: revisionId, designId }, include: [{ model: Design, as: 'design' }] });
+    if (!revision?.design) throw notFound('No such design revision');
+    const units = await loadLot(sequelize, revision, context.now());
+    return { design: { id: revision.design.id, name: revision.design.name }, revision: { id: revision.id, revision: revision.revision, label: revision.label, circuit: revision.circuit, limitMask: revision.limitMask }, units };
+  };
+
+  // Every unit measured against one revision (its latest session), each with its analysis.
+  router.get('/:id/revisions/:revisionId/lot', async (request, response) => {
+    response.json({ lot: await lotOf(String(request.params.id), String(request.params.revisionId)) });
+  });
+
+  router.get('/:id/revisions/:revisionId/lot/export.json', async (request, response) => {
+    const lot = await lotOf(String(request.params.id), String(request.params.revisionId));
+    response.attachment(`${safeFileName(`${lot.design.name}-${lot.revision.label}-lot`)}.json`).json({ format: 'rejectra-lot/1', exportedAt: context.now().toISOString(), ...lot });
+  });
+
+  router.get('/:id/revisions/:revisionId/lot/export.csv', async (request, response) => {
+    const lot = await lotOf(String(request.params.id), String(request.params.revisionId));
+    const rows = lot.units.flatMap((unit) =>
+      unit.analysis.points.map((point, index) => {
+        const verdict = unit.analysis.limits?.verdicts[index];
+        return [unit.unitSerial, unit.sessionId, unit.measuredAt, point.frequencyHz, point.cmrrDb, point.lowerBound, verdict?.limitDb ?? null, verdict?.marginDb ?? null, verdict?.outcome ?? ''];
+      }),
+    );
+    response
+      .type('text/csv; charset=utf-8')
+      .attachment(`${safeFileName(`${lot.design.name}-${lot.revision.label}-lot`)}.csv`)
+      .send(
+        csvDocument(
+          [`Rejectra lot: ${lot.design.name} ${lot.revision.label}; ${lot.units.length} units (latest session of each)`, 'cmrr_db of a lower_bound row is a lower bound'],
+          ['unit_serial', 'session_id', 'measured_at', 'frequency_hz', 'cmrr_db', 'lower_bound', 'limit_db', 'margin_db', 'outcome'],
+          rows,
+        ),
+      );
   });
 
   return router;
