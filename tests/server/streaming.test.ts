@@ -15,6 +15,7 @@ import { freePort } from '../../scripts/lib/postgres-cluster';
 import { createAccessToken } from '../../server/auth/access-tokens';
 import { hashPassword } from '../../server/auth/passwords';
 import { User } from '../../server/models';
+import { demoAccounts } from '../../server/seed';
 import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-database';
@@ -525,11 +526,21 @@ describe('streaming through a cut socket and a killed server', () => {
     port = await freePort();
     smtpPort = await freePort();
     baseUrl = `http://127.0.0.1:${port}`;
-    const seeded = startChild(['server/seed-main.ts'], { DATABASE_URL: database.url });
-    expect(await seeded.exited, seeded.output()).toBe(0);
+    // The server migrates the new database as it starts; the demo accounts are then written here
+    // (a seeding child process would add seconds, and the demo scenario is not needed).
     await startApiServer();
     db = new pg.Client({ connectionString: database.url });
     await db.connect();
+    const passwordHash = await hashPassword(demoPassword);
+    for (const account of demoAccounts) {
+      await db.query(`INSERT INTO users (id, email, name, role, status, password_hash, created_at, updated_at) VALUES ($1, $2, $3, $4, 'active', $5, now(), now())`, [
+        randomUUID(),
+        account.email,
+        account.name,
+        account.role,
+        passwordHash,
+      ]);
+    }
     const designer = request.agent(baseUrl).set('Origin', baseUrl);
     await designer.post('/api/auth/sign-in').send({ email: 'designer@rejectra.test', password: demoPassword }).expect(200);
     revisionId = (await designer.post('/api/designs').send(design).expect(201)).body.design.revisions[0].id;
