@@ -20,6 +20,8 @@ const unitSerial = 'HRB990-0001';
 // Points in the uploaded sweep (30, log-spaced over the simulated instrument's 10 Hz – 100 kHz).
 const differentialPointCount = 30;
 const commonModePointCount = 40;
+// Under a loaded machine an upload or a refit can take seconds; polls wait up to this long.
+const patient = { timeout: 30_000 };
 let app: TestApp;
 let browser: Browser;
 
@@ -95,21 +97,21 @@ describe('bench data in', () => {
 
     // The form: design and revision, unit, instruments, drives; a hazardous drive needs the caution read.
     await tech.getByLabel('Design', { exact: true }).selectOption({ label: designName });
-    await expect.poll(() => tech.getByLabel('Design revision').locator('option', { hasText: 'latest' }).count()).toBe(1);
+    await expect.poll(() => tech.getByLabel('Design revision').locator('option', { hasText: 'latest' }).count(), patient).toBe(1);
     await tech.getByLabel('Unit serial number').fill(unitSerial);
     await tech.getByLabel('Fixture').fill('Rail fixture RF-48, isolated common-mode injection');
     await tech.getByLabel('Ambient temperature (°C)').fill('23.5');
     await tech.getByRole('checkbox', { name: new RegExp(instrumentName) }).check();
     await tech.getByLabel('Common-mode drive DC level (V)').fill('48');
     await tech.getByLabel('Common-mode drive AC amplitude (V)').fill('20');
-    await expect.poll(() => tech.getByRole('checkbox', { name: 'I have read this caution' }).count()).toBe(1);
+    await expect.poll(() => tech.getByRole('checkbox', { name: 'I have read this caution' }).count(), patient).toBe(1);
     await tech.getByRole('button', { name: 'Start bench session' }).click();
-    await expect.poll(() => tech.getByText(/hazardous live: confirm the safety caution/).count()).toBeGreaterThan(0);
+    await expect.poll(() => tech.getByText(/hazardous live: confirm the safety caution/).count(), patient).toBeGreaterThan(0);
     await screenshot(tech, shots, '01-start-session-hazard-caution');
     await tech.getByRole('checkbox', { name: 'I have read this caution' }).check();
     await tech.getByRole('button', { name: 'Start bench session' }).click();
-    await expect.poll(() => tech.getByRole('heading', { name: `Unit ${unitSerial}` }).count()).toBe(1);
-    await expect.poll(() => tech.locator('[data-live-status="live"]').count()).toBe(1);
+    await expect.poll(() => tech.getByRole('heading', { name: `Unit ${unitSerial}` }).count(), patient).toBe(1);
+    await expect.poll(() => tech.locator('[data-live-status="live"]').count(), patient).toBe(1);
     const sessionId = new URL(tech.url()).pathname.split('/').pop()!;
     await screenshot(tech, shots, '02-session-started');
 
@@ -119,22 +121,22 @@ describe('bench data in', () => {
       mimeType: 'text/csv',
       buffer: Buffer.from(foreignDifferentialCsv()),
     });
-    await expect.poll(() => tech.getByRole('group', { name: 'Which column is which' }).count()).toBe(1);
+    await expect.poll(() => tech.getByRole('group', { name: 'Which column is which' }).count(), patient).toBe(1);
     expect(await tech.getByLabel('Frequency unit').inputValue()).toBe('kHz');
     expect(await tech.getByLabel('Drive (vin) unit').inputValue()).toBe('mV');
     expect(await tech.getByLabel('Drive (vin) convention').inputValue()).toBe('peak');
     expect(await tech.getByLabel('Output (vout) column').inputValue()).toBe('Out (mV pk)');
     // A wrong unit choice is caught in the browser, naming the row and column.
     await tech.getByLabel('Frequency column').selectOption('Drive (mV pk)');
-    await expect.poll(() => tech.getByText(/does not read as a sweep/).count()).toBe(1);
+    await expect.poll(() => tech.getByText(/does not read as a sweep/).count(), patient).toBe(1);
     await screenshot(tech, shots, '03-mapping-error');
     await tech.getByLabel('Frequency column').selectOption('Freq (kHz)');
-    await expect.poll(() => tech.getByText(`${differentialPointCount} previewed rows read as a sweep`, { exact: false }).count()).toBe(1);
+    await expect.poll(() => tech.getByText(`${differentialPointCount} previewed rows read as a sweep`, { exact: false }).count(), patient).toBe(1);
     await screenshot(tech, shots, '04-mapping-ready');
     await tech.getByRole('button', { name: 'Upload differential sweep' }).click();
     const differentialCount = tech.locator('tr[data-sweep-mode="differential"] [data-testid="sweep-point-count"]');
-    await expect.poll(() => differentialCount.textContent()).toBe(String(differentialPointCount));
-    await expect.poll(() => tech.getByText('hrb990-0001-diff.csv added as a differential sweep', { exact: false }).count()).toBe(1);
+    await expect.poll(() => differentialCount.textContent(), patient).toBe(String(differentialPointCount));
+    await expect.poll(() => tech.getByText('hrb990-0001-diff.csv added as a differential sweep', { exact: false }).count(), patient).toBe(1);
     await screenshot(tech, shots, '05-differential-uploaded');
 
     // A token from the Settings page, in a second tab so the session page stays open.
@@ -143,7 +145,7 @@ describe('bench data in', () => {
     await settings.getByLabel('Token name').fill('Journey bench PC');
     await settings.getByRole('button', { name: 'Create token' }).click();
     const tokenText = settings.getByTestId('new-token');
-    await expect.poll(() => tokenText.count()).toBe(1);
+    await expect.poll(() => tokenText.count(), patient).toBe(1);
     const token = (await tokenText.textContent())!.trim();
     expect(token).toMatch(/^rjt_/);
     expect(await settings.getByText("won't be shown again", { exact: false }).count()).toBe(1);
@@ -154,19 +156,19 @@ describe('bench data in', () => {
     await tech.evaluate(() => ((window as unknown as { journeyMarker: string }).journeyMarker = 'not reloaded'));
     const streamed = runStreamClient(['--url', app.url, '--token', token, '--session', sessionId, '--mode', 'common-mode', '--simulate', '--points', String(commonModePointCount), '--rate', '200']);
     const commonModeCount = tech.locator('tr[data-sweep-mode="common-mode"] [data-testid="sweep-point-count"]');
-    await expect.poll(() => commonModeCount.count(), { timeout: 30_000 }).toBe(1);
+    await expect.poll(() => commonModeCount.count(), patient).toBe(1);
     await screenshot(tech, shots, '07-common-mode-arriving');
     const { code, output } = await streamed;
     expect(code, output).toBe(0);
-    await expect.poll(() => commonModeCount.textContent(), { timeout: 15_000 }).toBe(String(commonModePointCount));
-    await expect.poll(() => tech.getByText('Analysis complete').count(), { timeout: 15_000 }).toBe(1);
-    await expect.poll(() => tech.getByTestId('dc-cmrr').textContent(), { timeout: 15_000 }).toMatch(/^\d+\.\d dB$/);
+    await expect.poll(() => commonModeCount.textContent(), patient).toBe(String(commonModePointCount));
+    await expect.poll(() => tech.getByText('Analysis complete').count(), patient).toBe(1);
+    await expect.poll(() => tech.getByTestId('dc-cmrr').textContent(), patient).toMatch(/^\d+\.\d dB$/);
     expect(await tech.evaluate(() => (window as unknown as { journeyMarker?: string }).journeyMarker)).toBe('not reloaded');
     await screenshot(tech, shots, '08-analysis-complete-live');
 
     // The points table of the streamed sweep, from the server, sorted by frequency.
     await tech.getByRole('button', { name: /Show the points of the common-mode sweep/ }).click();
-    await expect.poll(() => tech.getByRole('table', { name: /Points of the common-mode sweep/ }).locator('tbody tr').count()).toBe(commonModePointCount);
+    await expect.poll(() => tech.getByRole('table', { name: /Points of the common-mode sweep/ }).locator('tbody tr').count(), patient).toBe(commonModePointCount);
     await screenshot(tech, shots, '09-common-mode-points');
     await context.close();
   });
