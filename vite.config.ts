@@ -15,7 +15,9 @@ export default defineConfig({
   build: { outDir: 'dist/client', emptyOutDir: true, chunkSizeWarningLimit: 400 },
   test: {
     include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
-    testTimeout: 30_000,
+    testTimeout: 60_000,
+    // Browser journeys wait on pages; a loaded CI machine can take seconds per step.
+    expect: { poll: { timeout: 15_000, interval: 100 } },
     hookTimeout: 60_000,
     pool: 'forks',
     fileParallelism: true,

@@ -1,5 +1,5 @@
 import { Suspense, useState } from 'react';
-import { NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { NavLink, Outlet } from 'react-router-dom';
 import { Button } from '../components/button';
 import { Wordmark } from '../components/logo';
 import { LoadingState } from '../components/states';
@@ -18,7 +18,6 @@ export function AppShell() {
   const user = useSignedInUser();
   const health = useHealth();
   const signOut = useSignOut();
-  const navigate = useNavigate();
   const [menuOpen, setMenuOpen] = useState(false);
 
   const shown = visibleAreas(user.role, health.data?.mail);
@@ -96,7 +95,7 @@ export function AppShell() {
               className="mt-3 w-full !border-ink-600 !bg-ink-900 !text-white hover:!bg-ink-800"
               busy={signOut.isPending}
               busyLabel="Signing out…"
-              onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in', { replace: true }) })}
+              onClick={() => signOut.mutate()}
             >
               Sign out
             </Button>

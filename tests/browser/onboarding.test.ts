@@ -65,8 +65,8 @@ describe('onboarding a technician', () => {
     await expect.poll(() => tech.getByRole('heading', { name: /Sander Vik/ }).count()).toBe(1);
     await screenshot(tech, shots, '06-technician-overview');
 
-    const nav = tech.getByRole('navigation');
-    expect(await nav.getByRole('link', { name: 'Bench sessions' }).count()).toBe(1);
+    const nav = tech.getByRole('navigation', { name: 'Main' });
+    await expect.poll(() => nav.getByRole('link', { name: 'Bench sessions' }).count()).toBe(1);
     expect(await nav.getByRole('link', { name: 'People' }).count()).toBe(0);
     expect(await nav.getByRole('link', { name: 'Mailbox' }).count()).toBe(0);
     await tech.goto(`${app.url}/people`);

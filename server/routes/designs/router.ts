@@ -7,6 +7,7 @@ import { validateBody } from '../../http/validate';
 import { Design, DesignRevision } from '../../models';
 import { addDesignRevision, createDesign, loadDesignWithRevisions, sessionCountsByRevision } from '../../operations/designs';
 import { presentDesignDetail, presentDesignRevision, presentDesignSummary } from '../../presenters/design';
+import { monteCarloCmrrBand, summariseLot } from '../../../shared/analysis';
 import { loadLot } from '../../analysis/lot';
 import { csvDocument, safeFileName } from '../../exports/csv';
 
@@ -50,7 +51,19 @@ export function designsRouter(context: AppContext): Router {
     const revision = await DesignRevision.findOne({ where: { id: revisionId, designId }, include: [{ model: Design, as: 'design' }] });
     if (!revision?.design) throw notFound('No such design revision');
     const units = await loadLot(sequelize, revision, context.now());
-    return { design: { id: revision.design.id, name: revision.design.name }, revision: { id: revision.id, revision: revision.revision, label: revision.label, circuit: revision.circuit, limitMask: revision.limitMask }, units };
+    const analysed = units.filter((unit) => unit.analysis.status === 'complete' && unit.analysis.points.length > 0);
+    const frequencies = [...new Set(analysed.flatMap((unit) => unit.analysis.points.map((point) => point.frequencyHz)))].sort((a, b) => a - b);
+    // The predicted spread of the lot: Monte Carlo over the revision's tolerances (seeded, so a
+    // lot looks the same every time it is opened).
+    const band = frequencies.length > 0 ? monteCarloCmrrBand(revision.circuit, frequencies, { trials: 10_000, seed: 1 }) : undefined;
+    const summary = analysed.length > 0 ? summariseLot(analysed.map((unit) => ({ sessionId: unit.sessionId, unitSerial: unit.unitSerial, points: unit.analysis.points })), revision.limitMask, band) : null;
+    return {
+      design: { id: revision.design.id, name: revision.design.name },
+      revision: { id: revision.id, revision: revision.revision, label: revision.label, circuit: revision.circuit, limitMask: revision.limitMask },
+      units,
+      predictedBand: band?.points ?? [],
+      summary,
+    };
   };
 
   // Every unit measured against one revision (its latest session), each with its analysis.

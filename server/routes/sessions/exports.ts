@@ -1,6 +1,8 @@
 // GET /api/sessions/:id/export.csv, export.json and report.pdf: the session as a record.
 import type { Request, Response } from 'express';
+import { summariseSession } from '../../../shared/analysis';
 import type { SessionAnalysis } from '../../../shared/schemas/analysis';
+import type { Circuit } from '../../../shared/schemas/designs';
 import type { BenchSessionDetail } from '../../../shared/schemas/bench-sessions';
 import type { AppContext } from '../../app-context';
 import { analyzeSession } from '../../analysis/session-analysis';
@@ -9,16 +11,10 @@ import { notFound } from '../../http/errors';
 import { BenchSession, Design, DesignRevision } from '../../models';
 import { renderSessionReport } from '../../reports/session-report';
 
-/** One line: the limit verdict at the tightest frequency. */
-export function limitVerdictSentence(analysis: SessionAnalysis): string {
-  if (analysis.status !== 'complete' || !analysis.limits) return `No verdict: ${analysis.message ?? 'no paired sweeps'}`;
-  const judged = analysis.limits.verdicts.filter((verdict) => verdict.marginDb !== null);
-  if (judged.length === 0) return 'No verdict: no measured frequency lies inside the limit mask';
-  const tightest = judged.reduce((worst, verdict) => (verdict.marginDb! < worst.marginDb! ? verdict : worst));
-  const at = tightest.frequencyHz >= 1000 ? `${+(tightest.frequencyHz / 1000).toPrecision(3)} kHz` : `${+tightest.frequencyHz.toPrecision(3)} Hz`;
-  if (analysis.limits.overall === 'pass') return `Passes the limit mask; tightest margin ${tightest.marginDb!.toFixed(1)} dB at ${at}`;
-  if (analysis.limits.overall === 'fail') return `Fails the limit mask by ${(-tightest.marginDb!).toFixed(1)} dB at ${at}`;
-  return `Indeterminate against the limit mask: within the ${analysis.limits.guardBandDb} dB guard band (or a bound below the limit) at ${at}`;
+/** The one-line verdict, capitalised for a heading. */
+export function verdictLine(record: { analysis: SessionAnalysis; design: { circuit: Circuit } }): string {
+  const { sentence } = summariseSession(record.analysis, record.design.circuit);
+  return sentence.charAt(0).toUpperCase() + sentence.slice(1);
 }
 
 export async function loadSessionRecord(context: AppContext, sessionId: string, detail: BenchSessionDetail) {
@@ -40,7 +36,7 @@ export function sendSessionCsv(record: Awaited<ReturnType<typeof loadSessionReco
     `Rejectra bench session ${detail.id}`,
     `unit ${detail.unitSerial}; design ${design.name} ${design.revisionLabel}; operator ${detail.operator.name}; measured ${detail.measuredAt}`,
     `fixture ${detail.fixture}; ambient ${detail.ambientTemperatureC ?? ''} C; instruments ${detail.instruments.map((instrument) => `${instrument.name} s/n ${instrument.serialNumber} cal due ${instrument.calibrationDueOn ?? '-'}`).join('; ')}`,
-    `verdict: ${limitVerdictSentence(analysis)}`,
+    `verdict: ${verdictLine(record)}`,
     ...(fit ? [`fit: model ${fit.model}; dc CMRR ${fit.cmrrDcDb ?? ''} dB; corner ${fit.cmrrCornerHz ?? ''} Hz; ${fit.regimeSentence}`] : []),
     'amplitudes are ratios of readings in one convention; cmrr_db of a lower_bound row is a lower bound',
   ];
@@ -71,7 +67,7 @@ export async function sendSessionPdf(context: AppContext, record: Awaited<Return
     session: record.detail,
     design: record.design,
     analysis: record.analysis,
-    verdict: limitVerdictSentence(record.analysis),
+    verdict: verdictLine(record),
     generatedAt: context.now(),
     appVersion: context.version,
   });

@@ -1,6 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiRequest, isApiStatus } from '../../../lib/api-client';
-import { replaceSession } from './get-session';
 
 export async function signOut(): Promise<void> {
   try {
@@ -11,12 +10,18 @@ export async function signOut(): Promise<void> {
   }
 }
 
+/**
+ * After signing out the page is loaded afresh at /sign-in: nothing the previous person could see
+ * stays in memory, and the sign-in guard never sees the session vanish under the current page (it
+ * would remember that page as the place to return to after the next sign-in).
+ */
 export function useSignOut() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: signOut,
     onSuccess: () => {
-      replaceSession(queryClient, null);
+      queryClient.cancelQueries();
+      window.location.replace('/sign-in');
     },
   });
 }

@@ -2,11 +2,10 @@
 // which column is which, and check the previewed rows with the same engine code the server runs,
 // so the first problem shows (with its row and column) before anything is uploaded.
 import { EngineInputError } from '../../../../shared/engine/errors';
-import { createSweepBuilder, readDelimitedTable, type DelimitedTable, type SweepColumnMapping } from '../../../../shared/engine/sweep-table';
+import { createSweepBuilder, readDelimitedTable, type DelimitedTable } from '../../../../shared/engine/sweep-table';
+import { engineColumnMapping } from '../../../../shared/sweep-mapping';
 import {
-  amplitudeToRmsVolts,
   canonicalMapping,
-  frequencyUnits,
   type AmplitudeUnit,
   type ColumnMapping,
   type FrequencyUnit,
@@ -94,23 +93,6 @@ export function rememberedMappingFor(remembered: { header: string[]; mapping: Co
   return remembered.mapping;
 }
 
-/** The engine's mapping (with unit converters) for a stored one; the same conversion the server makes. */
-export function engineMapping(mapping: ColumnMapping): SweepColumnMapping {
-  const amplitude = (column: ColumnMapping['vin']) => ({
-    column: column.column,
-    toSweepUnit: (value: number) => amplitudeToRmsVolts(value, column.unit, column.convention),
-    unitLabel: column.unit === 'dBV' ? 'dBV' : `${column.unit} ${column.convention}`,
-  });
-  const scale = frequencyUnits[mapping.frequency.unit];
-  return {
-    frequency: { column: mapping.frequency.column, toSweepUnit: (value) => value * scale, unitLabel: mapping.frequency.unit },
-    vin: amplitude(mapping.vin),
-    vout: amplitude(mapping.vout),
-    phase: mapping.phase ? { column: mapping.phase.column, unitLabel: 'degrees' } : null,
-    floor: mapping.floor ? amplitude(mapping.floor) : null,
-  };
-}
-
 export type PreviewCheck =
   | { ok: true; rowsChecked: number; firstFrequencyHz: number | null; lastFrequencyHz: number | null }
   | { ok: false; message: string; row: number | null; column: string | number | null };
@@ -122,7 +104,7 @@ export type PreviewCheck =
  */
 export function checkPreview(preview: SweepPreview, mapping: ColumnMapping, averageRepeats: boolean): PreviewCheck {
   try {
-    const builder = createSweepBuilder(preview.table.header, engineMapping(mapping), {
+    const builder = createSweepBuilder(preview.table.header, engineColumnMapping(mapping), {
       file: preview.fileName,
       averageRepeats,
       allowDecimalComma: preview.table.delimiter !== ',',
