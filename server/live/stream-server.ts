@@ -169,19 +169,29 @@ export function attachStreamServer(server: Server, context: AppContext): StreamS
         }));
         // One statement, its own implicit transaction: committed when it returns.
         await insertPoints(sequelize, open.sweepId, rows);
-        for (const point of points) if (point.seq > open.through) open.above.add(point.seq);
-        while (open.above.has(open.through + 1)) {
-          open.above.delete(open.through + 1);
-          open.through += 1;
+        // An in-order batch (the usual case) moves `through` without going through the set.
+        let inOrder = open.above.size === 0 && points[0].seq <= open.through + 1;
+        for (let index = 1; inOrder && index < points.length; index++) inOrder = points[index].seq === points[index - 1].seq + 1;
+        if (inOrder) {
+          open.through = Math.max(open.through, points[points.length - 1].seq);
+        } else {
+          for (const point of points) if (point.seq > open.through) open.above.add(point.seq);
+          while (open.above.has(open.through + 1)) {
+            open.above.delete(open.through + 1);
+            open.through += 1;
+          }
         }
         send(socket, { type: 'ack', sweepId: open.sweepId, through: open.through });
-        context.hub.publish(open.sessionId, {
-          type: 'session-points',
-          sessionId: open.sessionId,
-          sweepId: open.sweepId,
-          mode: open.mode,
-          points: points.map((point) => ({ seq: point.seq, frequencyHz: point.frequencyHz, vinV: point.vinV, voutV: point.voutV, phaseDeg: point.phaseDeg ?? null, floorV: point.floorV ?? null })),
-        });
+        // Copying the batch for viewers costs allocations a stream with nobody watching does not need.
+        if (context.hub.viewerCount(open.sessionId) > 0) {
+          context.hub.publish(open.sessionId, {
+            type: 'session-points',
+            sessionId: open.sessionId,
+            sweepId: open.sweepId,
+            mode: open.mode,
+            points: points.map((point) => ({ seq: point.seq, frequencyHz: point.frequencyHz, vinV: point.vinV, voutV: point.voutV, phaseDeg: point.phaseDeg ?? null, floorV: point.floorV ?? null })),
+          });
+        }
         context.hub.requestRefit(open.sessionId);
         return;
       }
