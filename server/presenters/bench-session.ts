@@ -34,6 +34,7 @@ export function presentBenchSessionDetail(session: LoadedSession, sweepCounts: {
       name: instrument.name,
       model: `${instrument.manufacturer} ${instrument.model}`,
       serialNumber: instrument.serialNumber,
+      calibratedOn: instrument.calibratedOn,
       calibrationDueOn: instrument.calibrationDueOn,
       calibrationState: calibrationState(instrument.calibrationDueOn, today),
     })),

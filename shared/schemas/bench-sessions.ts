@@ -82,7 +82,7 @@ export interface BenchSessionDetail extends BenchSessionSummary {
   differentialDrive: Drive;
   commonModeDrive: Drive;
   notes: string;
-  instruments: { id: string; name: string; model: string; serialNumber: string; calibrationDueOn: string | null; calibrationState: string }[];
+  instruments: { id: string; name: string; model: string; serialNumber: string; calibratedOn: string | null; calibrationDueOn: string | null; calibrationState: string }[];
   archivedAt: string | null;
   archivedBy: { id: string; name: string } | null;
   createdAt: string;

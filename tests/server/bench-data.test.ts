@@ -124,6 +124,10 @@ describe('bench sessions', () => {
     expect(second.body.items.map((item: { unitSerial: string }) => item.unitSerial)).toEqual(['HRB204-0303']);
     const search = await lead.get(`/api/sessions?search=0302`);
     expect(search.body.items.map((item: { unitSerial: string }) => item.unitSerial)).toEqual(['HRB204-0302']);
+    const byDesign = await lead.get(`/api/sessions?search=${encodeURIComponent('paging BOARD')}`);
+    expect(byDesign.body.total).toBe(3);
+    const byOperator = await lead.get(`/api/sessions?search=Halvorsen&designId=${design.id}`);
+    expect(byOperator.body.total).toBe(3);
     expect((await lead.get('/api/sessions?pageSize=100000')).status).toBe(400);
   });
 });

@@ -60,7 +60,14 @@ export function sessionsRouter(context: AppContext): Router {
     if (query.designId) Object.assign(where, { '$designRevision.design_id$': query.designId });
     if (query.search) {
       const pattern = `%${query.search.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
-      Object.assign(where, { [Op.or]: [{ unitSerial: { [Op.iLike]: pattern } }, { fixture: { [Op.iLike]: pattern } }] });
+      Object.assign(where, {
+        [Op.or]: [
+          { unitSerial: { [Op.iLike]: pattern } },
+          { fixture: { [Op.iLike]: pattern } },
+          { '$designRevision.design.name$': { [Op.iLike]: pattern } },
+          { '$operator.name$': { [Op.iLike]: pattern } },
+        ],
+      });
     }
     const direction = query.direction.toUpperCase() as 'ASC' | 'DESC';
     const orderBy: Record<typeof query.sort, Order> = {

@@ -157,6 +157,7 @@ function SessionBody({ detail, user, live, notice }: { detail: BenchSessionDetai
                       </span>
                     </span>
                     <span className="flex items-center gap-2">
+                      {instrument.calibratedOn && <span className="tabular text-ink-600">calibrated {instrument.calibratedOn}</span>}
                       {instrument.calibrationDueOn && <span className="tabular text-ink-600">due {instrument.calibrationDueOn}</span>}
                       <CalibrationBadge state={instrument.calibrationState} />
                     </span>
