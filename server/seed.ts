@@ -116,6 +116,12 @@ async function seedDemoScenario(sequelize: Sequelize): Promise<'seeded' | 'alrea
         );
         await insertPoints(sequelize, sweep.id, demoSweep.points, transaction);
       }
+      // The records read as made on the day of the measurement, not the day of the seed.
+      await sequelize.query('UPDATE bench_sessions SET created_at = $2, updated_at = $2 WHERE id = $1', { bind: [session.id, measuredAt], transaction });
+      await sequelize.query(`UPDATE sweeps SET created_at = $2 + interval '20 minutes' * (CASE mode WHEN 'differential' THEN 0 ELSE 1 END), updated_at = $2 WHERE bench_session_id = $1`, {
+        bind: [session.id, measuredAt],
+        transaction,
+      });
       if (driveIsHazardous(demo.commonModeDrive)) {
         await AuditEvent.create(
           { actorId: operator.id, action: 'hazard-acknowledged', subjectType: 'bench-session', subjectId: session.id, details: { commonModeDrive: demo.commonModeDrive } },
