@@ -118,7 +118,7 @@ async function seedDemoScenario(sequelize: Sequelize): Promise<'seeded' | 'alrea
       }
       // The records read as made on the day of the measurement, not the day of the seed.
       await sequelize.query('UPDATE bench_sessions SET created_at = $2, updated_at = $2 WHERE id = $1', { bind: [session.id, measuredAt], transaction });
-      await sequelize.query(`UPDATE sweeps SET created_at = $2 + interval '20 minutes' * (CASE mode WHEN 'differential' THEN 0 ELSE 1 END), updated_at = $2 WHERE bench_session_id = $1`, {
+      await sequelize.query(`UPDATE sweeps SET created_at = $2::timestamptz + interval '20 minutes' * (CASE mode WHEN 'differential' THEN 0 ELSE 1 END), updated_at = $2::timestamptz WHERE bench_session_id = $1`, {
         bind: [session.id, measuredAt],
         transaction,
       });
