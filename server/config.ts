@@ -22,6 +22,8 @@ export interface ServerConfig {
   /** Requests a client may make to sign-in / password-reset per window. */
   authRateLimit: { windowMs: number; limit: number };
   logLevel: string;
+  /** Upload size limits. */
+  uploads: { sweepFileBytes: number; captureFileBytes: number };
 }
 
 export const defaults = {
@@ -64,5 +66,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, root = process.
       limit: integer('AUTH_RATE_LIMIT', env.AUTH_RATE_LIMIT, 30),
     },
     logLevel: env.LOG_LEVEL || 'info',
+    uploads: {
+      sweepFileBytes: integer('UPLOAD_SWEEP_MAX_BYTES', env.UPLOAD_SWEEP_MAX_BYTES, 50 * 1024 * 1024),
+      captureFileBytes: integer('UPLOAD_CAPTURE_MAX_BYTES', env.UPLOAD_CAPTURE_MAX_BYTES, 64 * 1024 * 1024),
+    },
   };
 }

@@ -20,16 +20,15 @@ import { sweepPointStats, type PointRow } from '../operations/sweep-points';
 import { presentSweep } from '../presenters/bench-session';
 import { readDelimitedRows, type DelimitedRows } from './delimited-rows';
 
+/** Limits that are not configuration (file sizes are: ServerConfig.uploads). */
 export const uploadLimits = {
-  sweepFileBytes: 50 * 1024 * 1024,
   sweepRows: 500_000,
-  captureFileBytes: 64 * 1024 * 1024,
   captureFiles: 200,
 } as const;
 
 export const columnMappingPreferenceKey = 'sweep-column-mapping';
 
-const megabytes = (bytes: number) => `${Math.round(bytes / (1024 * 1024))} MB`;
+const describeBytes = (bytes: number) => (bytes >= 1024 * 1024 ? `${+(bytes / (1024 * 1024)).toFixed(1)} MB` : `${bytes} bytes`);
 
 /** A multer storage that streams the file through csv-parse instead of buffering it. */
 function delimitedRowsStorage(): StorageEngine {
@@ -54,7 +53,7 @@ function runMulter(middleware: ReturnType<ReturnType<typeof multer>['single']>, 
       if (!error) return resolve();
       if (error instanceof MulterError) {
         if (error.code === 'LIMIT_FILE_SIZE') {
-          return reject(new HttpError(413, `The file in "${error.field}" is larger than the ${megabytes(limitBytes)} allowed per file`));
+          return reject(new HttpError(413, `The file in "${error.field}" is larger than the ${describeBytes(limitBytes)} allowed per file`));
         }
         if (error.code === 'LIMIT_FILE_COUNT') return reject(new HttpError(413, `At most ${uploadLimits.captureFiles} captures can be uploaded at once`));
         if (error.code === 'LIMIT_UNEXPECTED_FILE') return reject(badRequest(`Unexpected file field "${error.field}"`, { [error.field ?? 'file']: 'unexpected file field' }));
@@ -65,8 +64,19 @@ function runMulter(middleware: ReturnType<ReturnType<typeof multer>['single']>, 
   });
 }
 
-const sweepUpload = multer({ storage: delimitedRowsStorage(), limits: { fileSize: uploadLimits.sweepFileBytes, files: 1, fields: 20 } }).single('file');
-const captureUpload = multer({ storage: multer.memoryStorage(), limits: { fileSize: uploadLimits.captureFileBytes, files: uploadLimits.captureFiles, fields: 20 } }).array('files', uploadLimits.captureFiles);
+const uploaders = new WeakMap<AppContext['config'], { sweep: ReturnType<ReturnType<typeof multer>['single']>; captures: ReturnType<ReturnType<typeof multer>['array']> }>();
+/** The multer middleware for this server's configured limits (built once per configuration). */
+function uploadersFor(config: AppContext['config']) {
+  let built = uploaders.get(config);
+  if (!built) {
+    built = {
+      sweep: multer({ storage: delimitedRowsStorage(), limits: { fileSize: config.uploads.sweepFileBytes, files: 1, fields: 20 } }).single('file'),
+      captures: multer({ storage: multer.memoryStorage(), limits: { fileSize: config.uploads.captureFileBytes, files: uploadLimits.captureFiles, fields: 20 } }).array('files', uploadLimits.captureFiles),
+    };
+    uploaders.set(config, built);
+  }
+  return built;
+}
 
 async function requireOpenSession(sessionId: string): Promise<void> {
   const session = await BenchSession.findByPk(sessionId);
@@ -85,7 +95,7 @@ async function respondWithSweeps(context: AppContext, sessionId: string, sweeps:
 /** POST /api/sessions/:id/sweeps (multipart: file, mode, optional mapping JSON, averageRepeats, rememberMapping). */
 export async function handleSweepUpload(context: AppContext, sessionId: string, request: Request, response: Response): Promise<void> {
   await requireOpenSession(sessionId);
-  await runMulter(sweepUpload, uploadLimits.sweepFileBytes, request, response);
+  await runMulter(uploadersFor(context.config).sweep, context.config.uploads.sweepFileBytes, request, response);
   const file = request.file as (Express.Multer.File & { table?: DelimitedRows }) | undefined;
   if (!file?.table) throw badRequest('Attach the sweep file in the "file" field', { file: 'required' });
   const fields = uploadSweepFieldsSchema.safeParse(request.body ?? {});
@@ -148,7 +158,7 @@ const captureFieldsSchema = z.object({
  */
 export async function handleCaptureUpload(context: AppContext, sessionId: string, request: Request, response: Response): Promise<void> {
   await requireOpenSession(sessionId);
-  await runMulter(captureUpload, uploadLimits.captureFileBytes, request, response);
+  await runMulter(uploadersFor(context.config).captures, context.config.uploads.captureFileBytes, request, response);
   const files = (request.files as Express.Multer.File[] | undefined) ?? [];
   if (files.length === 0) throw badRequest('Attach at least one capture in the "files" field', { files: 'required' });
   const fields = captureFieldsSchema.safeParse(request.body ?? {});
