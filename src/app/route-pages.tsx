@@ -13,9 +13,12 @@ import { useSignedInUser } from './signed-in-user';
 const OverviewPage = lazy(() => import('../features/overview/components/overview-page'));
 const DesignsPage = lazy(() => import('../features/designs/components/designs-page'));
 const DesignDetailPage = lazy(() => import('../features/designs/components/design-detail-page'));
+const DesignAnalysisPage = lazy(() => import('../features/design-analysis/components/design-analysis-page'));
+const LotPage = lazy(() => import('../features/lots/components/lot-page'));
 const SessionsPage = lazy(() => import('../features/bench-sessions/components/sessions-page'));
 const StartSessionPage = lazy(() => import('../features/bench-sessions/components/start-session-page'));
 const SessionDetailPage = lazy(() => import('../features/bench-sessions/components/session-detail-page'));
+const SessionAnalysisView = lazy(() => import('../features/session-analysis/components/session-analysis-view'));
 const ComparePage = lazy(() => import('../features/compare/components/compare-page'));
 const InstrumentsPage = lazy(() => import('../features/instruments/components/instruments-page'));
 const PeoplePage = lazy(() => import('../features/people/components/people-page'));
@@ -81,6 +84,25 @@ export function DesignDetailRoute() {
   );
 }
 
+export function DesignAnalysisRoute() {
+  const user = useSignedInUser();
+  const { designId = '', revisionId = '' } = useParams();
+  return (
+    <RoleGate id="designs">
+      <DesignAnalysisPage key={`${designId}/${revisionId}`} designId={designId} revisionId={revisionId} role={user.role} />
+    </RoleGate>
+  );
+}
+
+export function LotRoute() {
+  const { designId = '', revisionId = '' } = useParams();
+  return (
+    <RoleGate id="designs">
+      <LotPage key={`${designId}/${revisionId}`} designId={designId} revisionId={revisionId} />
+    </RoleGate>
+  );
+}
+
 export function SessionsRoute() {
   const user = useSignedInUser();
   return (
@@ -103,7 +125,7 @@ export function SessionDetailRoute() {
   const { sessionId = '' } = useParams();
   return (
     <RoleGate id="sessions">
-      <SessionDetailPage key={sessionId} sessionId={sessionId} user={user} />
+      <SessionDetailPage key={sessionId} sessionId={sessionId} user={user} analysisView={SessionAnalysisView} />
     </RoleGate>
   );
 }

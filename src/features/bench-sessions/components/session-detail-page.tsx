@@ -1,5 +1,6 @@
-import { useState, type ReactNode } from 'react';
+import { Suspense, useState, type ComponentType, type ReactNode } from 'react';
 import { Link, useLocation } from 'react-router-dom';
+import type { SessionAnalysis } from '../../../../shared/schemas/analysis';
 import type { BenchSessionDetail, Drive } from '../../../../shared/schemas/bench-sessions';
 import type { User } from '../../../../shared/schemas/users';
 import { Badge, CalibrationBadge, HazardMarker } from '../../../components/badge';
@@ -19,7 +20,6 @@ import { useAnalysis } from '../api/get-analysis';
 import { useSession } from '../api/get-session';
 import { useSweeps } from '../api/get-sweeps';
 import { useLiveSession } from '../hooks/use-live-session';
-import { AnalysisPanel } from './analysis-panel';
 import { CapturesUpload } from './captures-upload';
 import { LiveIndicator } from './live-indicator';
 import { canRecordSessions } from './can-record-sessions';
@@ -37,7 +37,15 @@ function describeDrive(drive: Drive) {
   );
 }
 
-export default function SessionDetailPage({ sessionId, user }: { sessionId: string; user: User }) {
+/** What the page hands the analysis view (supplied by the app, so this feature does not import another). */
+export interface AnalysisViewProps {
+  session: BenchSessionDetail;
+  analysis: SessionAnalysis;
+  /** When this analysis reached the page, ms since the epoch. */
+  analysisUpdatedAt: number;
+}
+
+export default function SessionDetailPage({ sessionId, user, analysisView }: { sessionId: string; user: User; analysisView: ComponentType<AnalysisViewProps> }) {
   const session = useSession(sessionId);
   const live = useLiveSession(sessionId);
   const location = useLocation();
@@ -61,7 +69,7 @@ export default function SessionDetailPage({ sessionId, user }: { sessionId: stri
     <>
       <title>{`${detail.unitSerial} · Bench sessions · Rejectra`}</title>
       <BackLink />
-      <SessionBody detail={detail} user={user} live={<LiveIndicator state={live} />} notice={notice} />
+      <SessionBody detail={detail} user={user} live={<LiveIndicator state={live} />} notice={notice} analysisView={analysisView} />
     </>
   );
 }
@@ -76,7 +84,19 @@ function BackLink() {
 
 type AddTab = 'file' | 'captures' | 'stream';
 
-function SessionBody({ detail, user, live, notice }: { detail: BenchSessionDetail; user: User; live: ReactNode; notice: string | null }) {
+function SessionBody({
+  detail,
+  user,
+  live,
+  notice,
+  analysisView: AnalysisView,
+}: {
+  detail: BenchSessionDetail;
+  user: User;
+  live: ReactNode;
+  notice: string | null;
+  analysisView: ComponentType<AnalysisViewProps>;
+}) {
   const sweeps = useSweeps(detail.id);
   const analysis = useAnalysis(detail.id);
   const archive = useArchiveSession();
@@ -169,10 +189,14 @@ function SessionBody({ detail, user, live, notice }: { detail: BenchSessionDetai
         </div>
 
         <Card title="Analysis">
-          <div className="px-5 py-4" aria-live="polite" aria-busy={analysis.isFetching || undefined}>
+          <div className="px-5 py-4" aria-busy={analysis.isFetching || undefined}>
             {analysis.isPending && <LoadingState label="Analysing the sweeps…" />}
             {analysis.isError && <ErrorState title="The analysis could not be loaded" message={errorMessage(analysis.error)} onRetry={() => analysis.refetch()} />}
-            {analysis.isSuccess && <AnalysisPanel analysis={analysis.data.analysis} />}
+            {analysis.isSuccess && (
+              <Suspense fallback={<LoadingState label="Loading the analysis view…" />}>
+                <AnalysisView session={detail} analysis={analysis.data.analysis} analysisUpdatedAt={analysis.dataUpdatedAt} />
+              </Suspense>
+            )}
           </div>
         </Card>
 

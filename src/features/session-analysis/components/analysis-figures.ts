@@ -1,0 +1,134 @@
+// Figures beside the session charts: the fit's parameters with their 95 % intervals, the residuals
+// ready for a small plot, the margin at the tightest frequency, and the grid the Monte Carlo band
+// is computed on. Pure, so tests read them without a browser.
+import type { CmrrPoint } from '../../../../shared/engine/cmrr-points';
+import type { FrequencyFit } from '../../../../shared/engine/frequency-fit';
+import type { LimitVerdict } from '../../../../shared/schemas/analysis';
+import { decimateForLogAxis } from '../../../lib/charts/decimation';
+import { formatDb, formatFrequencyHz } from '../../../lib/charts/log-frequency-axis';
+
+export interface FitParameterRow {
+  key: 'dc-cmrr' | 'corner' | 'bandwidth' | 'slope' | 'residual';
+  label: string;
+  value: string;
+  /** "95 %: a … b" with units, or a reason it is missing. */
+  detail: string | null;
+}
+
+const interval = (values: [number, number] | null, format: (value: number) => string) =>
+  values ? `95 %: ${format(values[0])} … ${format(values[1])}` : null;
+
+const slopeText = (dbPerDecade: number) => `${dbPerDecade < 0 ? '−' : '+'}${Math.abs(dbPerDecade).toFixed(1)} dB/decade`;
+
+/**
+ * The fit's parameters as the page lists them, each with its unit and 95 % interval: dc CMRR,
+ * CMRR corner, closed-loop bandwidth, high-frequency slope, and the residual rms.
+ *
+ * @example fitParameterRows(fit)[0] // → { key: 'dc-cmrr', label: 'DC CMRR', value: '92.4 dB', detail: '95 %: 91.8 dB … 93.0 dB' }
+ */
+export function fitParameterRows(fit: FrequencyFit): FitParameterRow[] {
+  const slope = fit.highFrequencySlope;
+  return [
+    { key: 'dc-cmrr', label: 'DC CMRR', value: formatDb(fit.cmrrDcDb), detail: interval(fit.cmrrDcDbInterval95, (value) => formatDb(value)) },
+    {
+      key: 'corner',
+      label: 'CMRR corner',
+      value: fit.cmrrCornerHz ? formatFrequencyHz(fit.cmrrCornerHz) : '—',
+      detail: fit.cmrrCornerHz ? interval(fit.cmrrCornerHzInterval95, formatFrequencyHz) : 'not inside the measured range',
+    },
+    {
+      key: 'bandwidth',
+      label: 'Closed-loop bandwidth',
+      value: fit.bandwidthHz ? formatFrequencyHz(fit.bandwidthHz) : '—',
+      detail: fit.bandwidthHz ? interval(fit.bandwidthHzInterval95, formatFrequencyHz) : (fit.bandwidthNote ?? null),
+    },
+    {
+      key: 'slope',
+      label: 'High-frequency slope',
+      value: slope ? slopeText(slope.dbPerDecade) : '—',
+      detail: slope
+        ? `95 %: ${slopeText(slope.interval95[0])} … ${slopeText(slope.interval95[1])}, ${formatFrequencyHz(slope.fromHz)}–${formatFrequencyHz(slope.toHz)}`
+        : null,
+    },
+    {
+      key: 'residual',
+      label: 'Residual rms',
+      value: formatDb(fit.residualRmsDb, { digits: 2 }),
+      detail: `${fit.activePointCount} points in the fit${fit.activeBoundCount > 0 ? `, ${fit.activeBoundCount} of them bounds` : ''}; ${fit.degreesOfFreedom} degrees of freedom`,
+    },
+  ];
+}
+
+/** Residuals ready for the small plot: values and bounds apart, thinned per pixel column for huge sessions. */
+export interface ResidualPlotData {
+  frequencyHz: number[];
+  resolvedDb: (number | null)[];
+  boundDb: (number | null)[];
+  /** Largest |residual| of a resolved point and where. */
+  largest: { frequencyHz: number; residualDb: number } | null;
+}
+
+/**
+ * The fit's residuals (measured − fitted, dB) against frequency, resolved points and bounds as
+ * separate series; above 4 × widthPx points, per-column first/last/min/max (decimateForLogAxis)
+ * so the plot keeps its envelope. O(n) (O(n log n) when points arrive unsorted).
+ */
+export function prepareResiduals(points: readonly CmrrPoint[], fit: FrequencyFit, widthPx: number): ResidualPlotData {
+  const count = Math.min(points.length, fit.residualsDb.length);
+  const order = Array.from({ length: count }, (_, index) => index);
+  let sorted = true;
+  for (let index = 1; index < count; index++) if (points[index].frequencyHz < points[index - 1].frequencyHz) sorted = false;
+  if (!sorted) order.sort((a, b) => points[a].frequencyHz - points[b].frequencyHz);
+  const frequencyHz = new Float64Array(count);
+  const residual = new Float64Array(count);
+  let largest: ResidualPlotData['largest'] = null;
+  for (let at = 0; at < count; at++) {
+    const index = order[at];
+    frequencyHz[at] = points[index].frequencyHz;
+    residual[at] = fit.residualsDb[index];
+    if (!points[index].lowerBound && Number.isFinite(residual[at]) && (!largest || Math.abs(residual[at]) > Math.abs(largest.residualDb))) {
+      largest = { frequencyHz: frequencyHz[at], residualDb: residual[at] };
+    }
+  }
+  const kept = count > 4 * widthPx ? decimateForLogAxis(frequencyHz, [residual], widthPx) : Uint32Array.from(order.keys());
+  const out: ResidualPlotData = { frequencyHz: [], resolvedDb: [], boundDb: [], largest };
+  for (const at of kept) {
+    const bound = points[order[at]].lowerBound;
+    const value = Number.isFinite(residual[at]) ? residual[at] : null;
+    out.frequencyHz.push(frequencyHz[at]);
+    out.resolvedDb.push(bound ? null : value);
+    out.boundDb.push(bound ? value : null);
+  }
+  return out;
+}
+
+/**
+ * The margin to the limit at the tightest frequency in words, with units: "+3.2 dB above the
+ * 80.0 dB limit at 20 kHz (measured 83.2 dB; the design predicts 85.0 dB there)".
+ */
+export function marginStatement(tightest: LimitVerdict | null, predictedAtTightestDb: number | null): string | null {
+  if (!tightest || tightest.marginDb === null || tightest.limitDb === null) return null;
+  const side = tightest.marginDb >= 0 ? 'above' : 'below';
+  const measured = `${tightest.lowerBound ? 'at least ' : ''}${formatDb(tightest.cmrrDb)}`;
+  const predicted = predictedAtTightestDb === null ? '' : `; the design predicts ${formatDb(predictedAtTightestDb)} there`;
+  return `${formatDb(tightest.marginDb, { signed: true })} ${side} the ${formatDb(tightest.limitDb)} limit at ${formatFrequencyHz(tightest.frequencyHz)} (measured ${measured}${predicted})`;
+}
+
+/**
+ * Frequencies for the Monte Carlo band: `perDecade` points per decade, log-spaced, over whole
+ * decades around the measured range, so one computation serves a session while its sweep grows
+ * and every session of the revision measured over the same decades (the cache key is the decades).
+ *
+ * @throws RangeError for a range that is not positive and rising, or fewer than 2 points per decade
+ * @example monteCarloBandGrid(12, 95_000, 10) // → 41 frequencies from 10 Hz to 100 kHz
+ */
+export function monteCarloBandGrid(minimumHz: number, maximumHz: number, perDecade = 10): { firstDecade: number; lastDecade: number; frequenciesHz: number[] } {
+  if (!(minimumHz > 0) || !(maximumHz >= minimumHz) || !Number.isFinite(maximumHz) || !Number.isInteger(perDecade) || perDecade < 2) {
+    throw new RangeError(`monteCarloBandGrid requires 0 < minimum ≤ maximum and at least 2 points per decade, got ${minimumHz}, ${maximumHz}, ${perDecade}`);
+  }
+  const firstDecade = Math.floor(Math.log10(minimumHz) + 1e-12);
+  const lastDecade = Math.max(firstDecade + 1, Math.ceil(Math.log10(maximumHz) - 1e-12));
+  const steps = (lastDecade - firstDecade) * perDecade;
+  const frequenciesHz = Array.from({ length: steps + 1 }, (_, step) => Number((10 ** (firstDecade + step / perDecade)).toPrecision(12)));
+  return { firstDecade, lastDecade, frequenciesHz };
+}

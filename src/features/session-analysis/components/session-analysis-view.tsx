@@ -1,0 +1,392 @@
+// The session view (issue 5): CMRR and gain charts against the design, the fit with its
+// uncertainty, the verdict, the diagnosis against the design, and the session's exports. Updates in
+// place while a sweep streams in: new analyses reach the charts through setData.
+import { lazy, Suspense, useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
+import { summariseSession, type SessionSummary } from '../../../../shared/analysis/session-summary';
+import type { SessionAnalysis } from '../../../../shared/schemas/analysis';
+import type { BenchSessionDetail } from '../../../../shared/schemas/bench-sessions';
+import { Badge, type BadgeTone } from '../../../components/badge';
+import { LoadingState } from '../../../components/states';
+import { errorMessage } from '../../../lib/api-client';
+import { formatDb, formatFrequencyHz } from '../../../lib/charts/log-frequency-axis';
+import { prepareSessionCharts } from '../../../lib/charts/session-chart-data';
+import { formatDateTime } from '../../../lib/format-date';
+import { useDesignRevision } from '../api/get-design-revision';
+import { SESSION_BAND_TRIALS, useMonteCarloBand } from '../hooks/use-monte-carlo-band';
+import { fitParameterRows, marginStatement, prepareResiduals } from './analysis-figures';
+import { alignToFixedSeries, cmrrSeries, gainSeries, type TraceGroup } from './chart-series';
+
+// uPlot travels only with the charts' own chunk.
+const SessionCharts = lazy(() => import('./session-charts'));
+const ResidualChart = lazy(() => import('./session-charts').then((module) => ({ default: module.ResidualChart })));
+
+export interface SessionAnalysisViewProps {
+  session: BenchSessionDetail;
+  analysis: SessionAnalysis;
+  /** When this analysis reached the page (ms since the epoch, TanStack Query's dataUpdatedAt). */
+  analysisUpdatedAt: number;
+}
+
+const statusAppearance: Record<SessionAnalysis['status'], { tone: BadgeTone; symbol: string; label: string }> = {
+  complete: { tone: 'good', symbol: '●', label: 'Analysis complete' },
+  incomplete: { tone: 'warn', symbol: '◌', label: 'Analysis incomplete' },
+  error: { tone: 'fault', symbol: '▲', label: 'Analysis refused the data' },
+};
+
+const outcomeAppearance: Record<SessionSummary['outcome'], { tone: BadgeTone; symbol: string; label: string }> = {
+  pass: { tone: 'good', symbol: '✓', label: 'Pass' },
+  fail: { tone: 'fault', symbol: '✗', label: 'Fail' },
+  indeterminate: { tone: 'warn', symbol: '?', label: 'Indeterminate' },
+  'outside-mask': { tone: 'quiet', symbol: '–', label: 'Outside mask' },
+  'no-limit': { tone: 'quiet', symbol: '–', label: 'No limit' },
+  'no-data': { tone: 'quiet', symbol: '◌', label: 'No verdict yet' },
+};
+
+function OutcomeBadge({ outcome }: { outcome: string }) {
+  const appearance = outcomeAppearance[outcome as SessionSummary['outcome']] ?? outcomeAppearance['outside-mask'];
+  return (
+    <Badge tone={appearance.tone} symbol={appearance.symbol}>
+      {appearance.label}
+    </Badge>
+  );
+}
+
+const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+
+/** Where the session's charts measure their speed (bench/session-chart.bench.ts reads these). */
+function markChartsDrawn(analysisUpdatedAt: number): void {
+  const arrived = Math.max(0, analysisUpdatedAt - performance.timeOrigin);
+  performance.clearMarks('analysis-data-arrived');
+  performance.clearMarks('charts-drawn');
+  performance.clearMeasures('session-charts');
+  performance.mark('analysis-data-arrived', { startTime: arrived });
+  performance.mark('charts-drawn');
+  performance.measure('session-charts', 'analysis-data-arrived', 'charts-drawn');
+}
+
+/** Why there is nothing to draw yet, in the bench's words. */
+function incompleteText(analysis: SessionAnalysis): string {
+  const { differential, commonMode } = analysis.pointCounts;
+  if (differential > 0 && commonMode === 0) {
+    return `Only a differential sweep so far (${differential} points). CMRR needs the common-mode sweep too; the charts appear as soon as its first points arrive.`;
+  }
+  if (commonMode > 0 && differential === 0) {
+    return `Only a common-mode sweep so far (${commonMode} points). CMRR needs the differential sweep too; the charts appear as soon as its first points arrive.`;
+  }
+  if (differential === 0 && commonMode === 0) return 'No sweeps yet. Add a differential and a common-mode sweep below; the charts appear as soon as both have points.';
+  return analysis.message ?? 'The sweeps do not overlap in frequency yet, so no CMRR point can be formed.';
+}
+
+export default function SessionAnalysisView({ session, analysis, analysisUpdatedAt }: SessionAnalysisViewProps) {
+  const design = useDesignRevision(session.design.id, session.designRevision.id);
+  const revision = design.data?.revision ?? null;
+  const circuit = revision?.circuit ?? null;
+  const rangeHz = useMemo((): [number, number] | null => {
+    let low = Infinity;
+    let high = -Infinity;
+    for (const point of analysis.points) {
+      if (point.frequencyHz < low) low = point.frequencyHz;
+      if (point.frequencyHz > high) high = point.frequencyHz;
+    }
+    return low > 0 && high >= low ? [low, high] : null;
+  }, [analysis.points]);
+  const band = useMonteCarloBand(session.designRevision.id, circuit, rangeHz);
+  // Decimate to the widest the charts can be on this screen: at most one kept column per pixel.
+  const [widthPx] = useState(() => Math.min(2000, Math.max(640, Math.round(window.innerWidth))));
+  const [hidden, setHidden] = useState<ReadonlySet<TraceGroup>>(() => new Set());
+  const limitMask = revision?.limitMask ?? null;
+  const prepared = useMemo(
+    () =>
+      prepareSessionCharts(
+        { points: analysis.points, fit: analysis.fit, prediction: analysis.prediction, monteCarloBand: band.data, limitMask },
+        { widthPx },
+      ),
+    [analysis.points, analysis.fit, analysis.prediction, band.data, limitMask, widthPx],
+  );
+  const cmrr = useMemo(() => alignToFixedSeries(prepared.cmrr, cmrrSeries), [prepared]);
+  const gains = useMemo(() => alignToFixedSeries(prepared.gains, gainSeries), [prepared]);
+  const residuals = useMemo(() => (analysis.fit && analysis.fit.residualsDb.length > 0 ? prepareResiduals(analysis.points, analysis.fit, 480) : null), [analysis.points, analysis.fit]);
+  const summary = useMemo(() => {
+    try {
+      return { value: summariseSession(analysis, circuit), error: null };
+    } catch (error) {
+      return { value: summariseSession(analysis, null), error: errorMessage(error) };
+    }
+  }, [analysis, circuit]);
+
+  const drawn = useRef({ cmrr: -1, gains: -1, marked: -1 });
+  const onDrawn = useCallback((chart: 'cmrr' | 'gains', version: number) => {
+    const state = drawn.current;
+    state[chart] = version;
+    if (state.cmrr === version && state.gains === version && state.marked !== version) {
+      state.marked = version;
+      markChartsDrawn(version);
+    }
+  }, []);
+  const onToggle = useCallback((group: TraceGroup, visible: boolean) => {
+    setHidden((current) => {
+      const next = new Set(current);
+      if (visible) next.delete(group);
+      else next.add(group);
+      return next;
+    });
+  }, []);
+
+  const status = statusAppearance[analysis.status];
+  const fit = analysis.fit;
+  const margin = marginStatement(summary.value.tightest, summary.value.predictedAtTightestDb);
+  const diagnosis = summary.value.diagnosis;
+  return (
+    <div className="space-y-5">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <div className="flex flex-wrap items-center gap-3">
+          <Badge tone={status.tone} symbol={status.symbol}>
+            {status.label}
+          </Badge>
+          <span className="text-[0.9375rem] text-ink-600">
+            <span className="tabular">{analysis.pointCounts.differential}</span> differential and <span className="tabular">{analysis.pointCounts.commonMode}</span>{' '}
+            common-mode points · computed <span className="tabular">{formatDateTime(analysis.computedAt)}</span>
+          </span>
+        </div>
+        <ExportLinks sessionId={session.id} />
+      </div>
+
+      <div className="flex flex-wrap items-center gap-3 rounded-md border border-ink-200 bg-ink-50 px-4 py-3" data-testid="session-verdict" aria-live="polite">
+        <OutcomeBadge outcome={summary.value.outcome} />
+        <p className="text-lg text-ink-900" data-testid="verdict-sentence">
+          {capitalise(summary.value.sentence)}
+        </p>
+      </div>
+
+      {analysis.points.length === 0 ? (
+        <p className="rounded-md border border-dashed border-ink-300 px-4 py-6 text-ink-800" data-testid="analysis-incomplete">
+          {incompleteText(analysis)}
+        </p>
+      ) : (
+        <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_24rem]">
+          <div className="min-w-0 space-y-2">
+            {analysis.status !== 'complete' && analysis.message && <p className="text-ink-800">{analysis.message}</p>}
+            <Suspense fallback={<LoadingState label="Loading the charts…" />}>
+              <SessionCharts
+                cmrr={cmrr}
+                gains={gains}
+                prepared={prepared}
+                version={analysisUpdatedAt}
+                hidden={hidden}
+                onToggle={onToggle}
+                onDrawn={onDrawn}
+                syncKey={`session-${session.id}`}
+              />
+            </Suspense>
+            <BandNote
+              state={circuit === null ? (design.isError ? 'no-design' : 'waiting') : band.isError ? 'error' : band.isPending ? 'computing' : 'ready'}
+              message={band.isError ? errorMessage(band.error) : design.isError ? errorMessage(design.error) : null}
+            />
+          </div>
+
+          <aside className="min-w-0 space-y-4" aria-label="Fit, margin and diagnosis">
+            {margin && (
+              <Panel title="Margin at the tightest frequency">
+                <p className="text-ink-900" data-testid="tightest-margin">
+                  {margin}
+                </p>
+              </Panel>
+            )}
+            <Panel title="Fit">
+              {fit ? (
+                <>
+                  <dl className="divide-y divide-ink-100">
+                    {fitParameterRows(fit).map((row) => (
+                      <div key={row.key} className="grid grid-cols-[9.5rem_1fr] gap-2 py-1.5">
+                        <dt className="text-[0.9375rem] text-ink-600">{row.label}</dt>
+                        <dd>
+                          <span className="tabular font-medium text-ink-900" data-testid={row.key === 'dc-cmrr' ? 'dc-cmrr' : undefined}>
+                            {row.value}
+                          </span>
+                          {row.detail && <span className="block text-[0.875rem] text-ink-600">{row.detail}</span>}
+                        </dd>
+                      </div>
+                    ))}
+                  </dl>
+                  <p className="mt-2 text-[0.875rem] text-ink-600">
+                    {fit.model === 'first-order' ? 'First-order model' : fit.model === 'smooth' ? `Smooth description (degree ${fit.smoothDegree ?? '?'} in log f)` : 'No model'}: {fit.modelReason}
+                  </p>
+                </>
+              ) : (
+                <p className="text-ink-700">No fit yet: too few resolved points.</p>
+              )}
+            </Panel>
+            {fit && (
+              <Panel title="Where the rejection is limited">
+                <p className="text-ink-900" data-testid="regime-sentence">
+                  {fit.regimeSentence}
+                </p>
+              </Panel>
+            )}
+            <Panel title="Against the design">
+              {diagnosis && diagnosis.sentences.length > 0 ? (
+                <ul className="list-disc space-y-1.5 pl-5 text-ink-900" data-testid="diagnosis">
+                  {diagnosis.sentences.map((sentence) => (
+                    <li key={sentence}>{sentence}</li>
+                  ))}
+                </ul>
+              ) : (
+                <p className="text-ink-700">
+                  {summary.error
+                    ? `The design's circuit could not be used: ${summary.error}`
+                    : !fit
+                      ? 'The diagnosis needs a fit of the measured curve.'
+                      : design.isPending
+                        ? 'Reading the design revision…'
+                        : 'No diagnosis: the design revision could not be read.'}
+                </p>
+              )}
+            </Panel>
+            {residuals && (
+              <Panel title="Residuals">
+                <Suspense fallback={<LoadingState label="Loading the residual plot…" />}>
+                  <ResidualChart residuals={residuals} version={analysisUpdatedAt} syncKey={`session-${session.id}`} />
+                </Suspense>
+                <p className="mt-1 text-[0.875rem] text-ink-600">
+                  rms <span className="tabular">{formatDb(fit?.residualRmsDb, { digits: 2 })}</span>
+                  {residuals.largest && (
+                    <>
+                      ; largest <span className="tabular">{formatDb(residuals.largest.residualDb, { digits: 2, signed: true })}</span> at{' '}
+                      <span className="tabular">{formatFrequencyHz(residuals.largest.frequencyHz)}</span>
+                    </>
+                  )}
+                </p>
+              </Panel>
+            )}
+            {analysis.warnings.length > 0 && (
+              <Panel title="Warnings">
+                <ul className="list-disc space-y-1 pl-5 text-[0.9375rem] text-amber-900">
+                  {analysis.warnings.map((warning) => (
+                    <li key={warning}>{warning}</li>
+                  ))}
+                </ul>
+              </Panel>
+            )}
+          </aside>
+        </div>
+      )}
+
+      {analysis.points.length > 0 && <PointsTable analysis={analysis} />}
+    </div>
+  );
+}
+
+function BandNote({ state, message }: { state: 'waiting' | 'computing' | 'ready' | 'error' | 'no-design'; message: string | null }) {
+  const text = {
+    waiting: 'Reading the design revision for its prediction bands…',
+    computing: `Computing the Monte Carlo band (${SESSION_BAND_TRIALS.toLocaleString('en')} trials of the design's tolerances) in the background…`,
+    ready: `Monte Carlo band: 5th to 95th percentile of ${SESSION_BAND_TRIALS.toLocaleString('en')} trials of the design's tolerances.`,
+    error: `The Monte Carlo band could not be computed: ${message ?? ''}`,
+    'no-design': `The design revision could not be read, so the Monte Carlo band and the limit are missing: ${message ?? ''}`,
+  }[state];
+  return (
+    <p className="text-[0.875rem] text-ink-600" data-band-state={state}>
+      {text}
+    </p>
+  );
+}
+
+function ExportLinks({ sessionId }: { sessionId: string }) {
+  const base = `/api/sessions/${encodeURIComponent(sessionId)}`;
+  const link = 'rounded-md border border-ink-300 bg-white px-3 py-1.5 text-[0.9375rem] font-medium text-trace-700 hover:bg-trace-50';
+  return (
+    <nav aria-label="Export this session" className="flex flex-wrap items-center gap-2">
+      <span className="text-[0.9375rem] text-ink-600">Download</span>
+      <a className={link} href={`${base}/export.csv`} download>
+        CSV
+      </a>
+      <a className={link} href={`${base}/export.json`} download>
+        JSON
+      </a>
+      <a className={link} href={`${base}/report.pdf`} download>
+        PDF report
+      </a>
+    </nav>
+  );
+}
+
+function Panel({ title, children }: { title: string; children: ReactNode }) {
+  return (
+    <section className="rounded-md border border-ink-200 px-4 py-3">
+      <h3 className="mb-1.5 text-[0.9375rem] font-semibold text-ink-800">{title}</h3>
+      {children}
+    </section>
+  );
+}
+
+const pointsPageSize = 50;
+
+/** Every CMRR point with its fit, prediction, limit and verdict; paged here so a 100,000-point session stays quick. */
+function PointsTable({ analysis }: { analysis: SessionAnalysis }) {
+  const [open, setOpen] = useState(false);
+  const [page, setPage] = useState(1);
+  const pages = Math.max(1, Math.ceil(analysis.points.length / pointsPageSize));
+  const current = Math.min(page, pages);
+  const first = (current - 1) * pointsPageSize;
+  const fit = analysis.fit;
+  return (
+    <details className="rounded-md border border-ink-200" onToggle={(event) => setOpen(event.currentTarget.open)}>
+      <summary className="cursor-pointer px-4 py-2 font-medium text-trace-700">
+        CMRR at each point (<span className="tabular">{analysis.points.length.toLocaleString('en')}</span>)
+      </summary>
+      {open && (
+        <>
+          <div className="overflow-x-auto">
+            <table className="min-w-full text-[0.9375rem]">
+              <caption className="sr-only">CMRR at each measured frequency</caption>
+              <thead className="bg-ink-50 text-ink-700">
+                <tr>
+                  {['Frequency', 'CMRR', 'Fit', 'Residual', 'Predicted', 'Limit', 'Verdict'].map((heading) => (
+                    <th key={heading} scope="col" className={`px-3 py-1.5 font-semibold ${heading === 'Verdict' ? 'text-left' : 'text-right'}`}>
+                      {heading}
+                    </th>
+                  ))}
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-ink-100">
+                {analysis.points.slice(first, first + pointsPageSize).map((point, offset) => {
+                  const index = first + offset;
+                  const verdict = analysis.limits?.verdicts[index];
+                  return (
+                    <tr key={`${point.frequencyHz}-${index}`}>
+                      <td className="tabular px-3 py-1 text-right">{formatFrequencyHz(point.frequencyHz)}</td>
+                      <td className="tabular px-3 py-1 text-right" title={point.lowerBound ? 'Output at the noise floor: the CMRR is at least this' : undefined}>
+                        {formatDb(point.cmrrDb, { lowerBound: point.lowerBound })}
+                      </td>
+                      <td className="tabular px-3 py-1 text-right">{formatDb(fit?.fittedCmrrDb[index])}</td>
+                      <td className="tabular px-3 py-1 text-right">{formatDb(fit?.residualsDb[index], { digits: 2, signed: true })}</td>
+                      <td className="tabular px-3 py-1 text-right">{formatDb(analysis.prediction[index]?.cmrrDb)}</td>
+                      <td className="tabular px-3 py-1 text-right">{formatDb(verdict?.limitDb)}</td>
+                      <td className="px-3 py-1">{verdict ? <OutcomeBadge outcome={verdict.outcome} /> : '—'}</td>
+                    </tr>
+                  );
+                })}
+              </tbody>
+            </table>
+          </div>
+          <div className="flex flex-wrap items-center justify-between gap-2 px-4 py-2 text-[0.875rem] text-ink-600">
+            <span>“≥” marks a lower bound: the common-mode output was at its noise floor.</span>
+            {pages > 1 && (
+              <span className="flex items-center gap-2">
+                <button type="button" className="rounded border border-ink-300 px-2 py-0.5 disabled:opacity-50" disabled={current <= 1} onClick={() => setPage(current - 1)}>
+                  Previous
+                </button>
+                <span className="tabular">
+                  {current} / {pages}
+                </span>
+                <button type="button" className="rounded border border-ink-300 px-2 py-0.5 disabled:opacity-50" disabled={current >= pages} onClick={() => setPage(current + 1)}>
+                  Next
+                </button>
+              </span>
+            )}
+          </div>
+        </>
+      )}
+    </details>
+  );
+}
