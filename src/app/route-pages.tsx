@@ -13,6 +13,8 @@ import { useSignedInUser } from './signed-in-user';
 const OverviewPage = lazy(() => import('../features/overview/components/overview-page'));
 const DesignsPage = lazy(() => import('../features/designs/components/designs-page'));
 const DesignDetailPage = lazy(() => import('../features/designs/components/design-detail-page'));
+const DesignAnalysisPage = lazy(() => import('../features/design-analysis/components/design-analysis-page'));
+const LotPage = lazy(() => import('../features/lots/components/lot-page'));
 const SessionsPage = lazy(() => import('../features/bench-sessions/components/sessions-page'));
 const StartSessionPage = lazy(() => import('../features/bench-sessions/components/start-session-page'));
 const SessionDetailPage = lazy(() => import('../features/bench-sessions/components/session-detail-page'));
@@ -78,6 +80,25 @@ export function DesignDetailRoute() {
   return (
     <RoleGate id="designs">
       <DesignDetailPage key={designId} designId={designId} role={user.role} />
+    </RoleGate>
+  );
+}
+
+export function DesignAnalysisRoute() {
+  const user = useSignedInUser();
+  const { designId = '', revisionId = '' } = useParams();
+  return (
+    <RoleGate id="designs">
+      <DesignAnalysisPage key={`${designId}/${revisionId}`} designId={designId} revisionId={revisionId} role={user.role} />
+    </RoleGate>
+  );
+}
+
+export function LotRoute() {
+  const { designId = '', revisionId = '' } = useParams();
+  return (
+    <RoleGate id="designs">
+      <LotPage key={`${designId}/${revisionId}`} designId={designId} revisionId={revisionId} />
     </RoleGate>
   );
 }

@@ -5,11 +5,13 @@ import { AppShell } from './app-shell';
 import { RedirectIfSignedIn, RequireSession } from './require-session';
 import {
   CompareRoute,
+  DesignAnalysisRoute,
   DesignDetailRoute,
   DesignsRoute,
   ForgotPasswordPage,
   InstrumentsRoute,
   LinkPage,
+  LotRoute,
   MailboxRoute,
   NotFoundRoute,
   OverviewRoute,
@@ -79,6 +81,8 @@ export const router = createBrowserRouter([
               { index: true, element: <OverviewRoute /> },
               { path: 'designs', element: <DesignsRoute /> },
               { path: 'designs/:designId', element: <DesignDetailRoute /> },
+              { path: 'designs/:designId/revisions/:revisionId', element: <DesignAnalysisRoute /> },
+              { path: 'designs/:designId/revisions/:revisionId/lot', element: <LotRoute /> },
               { path: 'sessions', element: <SessionsRoute /> },
               { path: 'sessions/new', element: <StartSessionRoute /> },
               { path: 'sessions/:sessionId', element: <SessionDetailRoute /> },

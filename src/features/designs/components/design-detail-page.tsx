@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useLocation, useNavigate } from 'react-router-dom';
-import { topologyLabels, type DesignRevision } from '../../../../shared/schemas/designs';
+import { topologyLabels, type Circuit, type DesignDetail, type DesignRevision } from '../../../../shared/schemas/designs';
 import type { Role } from '../../../../shared/schemas/users';
 import { Button } from '../../../components/button';
 import { FormSuccess } from '../../../components/form-error';
@@ -19,8 +19,11 @@ export default function DesignDetailPage({ designId, role }: { designId: string;
   const location = useLocation();
   const navigate = useNavigate();
   const canEdit = role === 'designer' || role === 'lead';
-  const [editing, setEditing] = useState(false);
-  const notice = (location.state as { notice?: string } | null)?.notice ?? null;
+  const routeState = location.state as { notice?: string; explorerStart?: ExplorerStart } | null;
+  const notice = routeState?.notice ?? null;
+  // The tolerance explorer hands over what it tried; the form opens prefilled with it (nothing is saved until the form is).
+  const explorerStart = canEdit ? (routeState?.explorerStart ?? null) : null;
+  const [editing, setEditing] = useState(explorerStart !== null);
 
   if (design.isPending) return <LoadingState label="Loading the design…" />;
   if (design.isError) {
@@ -53,9 +56,14 @@ export default function DesignDetailPage({ designId, role }: { designId: string;
       />
       <div className="space-y-6">
         <FormSuccess message={editing ? null : notice} />
+        {editing && explorerStart && (
+          <p className="rounded-md border border-amber-500/60 bg-amber-50 px-4 py-2 text-ink-900">
+            Prefilled from the tolerance explorer: the form below holds the values you tried. Give the revision a label and a change note, then save it as a new revision.
+          </p>
+        )}
         {editing && (
           <DesignForm
-            design={detail}
+            design={explorerStart ? designStartingFrom(detail, explorerStart) : detail}
             onCancel={() => setEditing(false)}
             onSaved={(_id, message) => {
               setEditing(false);
@@ -68,11 +76,23 @@ export default function DesignDetailPage({ designId, role }: { designId: string;
           <span className="tabular">{detail.revisions.length}</span> revision{detail.revisions.length === 1 ? '' : 's'}, newest first.
         </p>
         {detail.revisions.map((revision, index) => (
-          <RevisionCard key={revision.id} revision={revision} latest={index === 0} />
+          <RevisionCard key={revision.id} designId={detail.id} revision={revision} latest={index === 0} />
         ))}
       </div>
     </>
   );
+}
+
+/** What the tolerance explorer passes when asked to start a new revision with its values. */
+type ExplorerStart = { fromRevisionId: string; circuit: Circuit };
+
+/**
+ * The design as the form should start from it: the form starts from the newest revision, so the
+ * explored revision (with the explored circuit) is put first.
+ */
+function designStartingFrom(detail: DesignDetail, start: ExplorerStart): DesignDetail {
+  const from = detail.revisions.find((revision) => revision.id === start.fromRevisionId) ?? detail.revisions[0];
+  return { ...detail, revisions: [{ ...from, circuit: start.circuit }, ...detail.revisions.filter((revision) => revision.id !== from.id)] };
 }
 
 function BackLink() {
@@ -83,8 +103,9 @@ function BackLink() {
   );
 }
 
-function RevisionCard({ revision, latest }: { revision: DesignRevision; latest: boolean }) {
+function RevisionCard({ designId, revision, latest }: { designId: string; revision: DesignRevision; latest: boolean }) {
   const circuit = revision.circuit;
+  const revisionPath = `/designs/${encodeURIComponent(designId)}/revisions/${encodeURIComponent(revision.id)}`;
   return (
     <section aria-labelledby={`revision-${revision.id}`} className="rounded-lg border border-ink-200 bg-white">
       <header className="flex flex-wrap items-baseline justify-between gap-3 border-b border-ink-200 px-5 py-3">
@@ -102,6 +123,16 @@ function RevisionCard({ revision, latest }: { revision: DesignRevision; latest: 
             'no bench sessions yet'
           )}
         </p>
+        <nav aria-label={`Analysis of ${revisionName(revision.label)}`} className="flex basis-full flex-wrap gap-2">
+          <Link to={revisionPath} className="rounded-md border border-trace-300 bg-trace-50 px-3 py-1 text-[0.9375rem] font-medium text-trace-800 hover:bg-trace-100">
+            Prediction and tolerance explorer
+          </Link>
+          {revision.sessionCount > 0 && (
+            <Link to={`${revisionPath}/lot`} className="rounded-md border border-trace-300 bg-trace-50 px-3 py-1 text-[0.9375rem] font-medium text-trace-800 hover:bg-trace-100">
+              Lot view: units measured against {revisionName(revision.label)}
+            </Link>
+          )}
+        </nav>
       </header>
       <div className="grid gap-6 px-5 py-4 lg:grid-cols-3">
         <div>
