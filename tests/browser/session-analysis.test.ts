@@ -1,0 +1,180 @@
+import { execFileSync, spawn } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { summariseSession } from '../../shared/analysis';
+import type { SessionAnalysis } from '../../shared/schemas/analysis';
+import type { DesignDetail, DesignSummary } from '../../shared/schemas/designs';
+import { artifactsDir, chromiumPath, launchBrowser, screenshot } from '../helpers/browser';
+import { startTestApp, type TestApp } from '../helpers/test-app';
+
+// Issue 5's session journeys through the built client in Chromium, on the demo lab: the designer
+// watches a streamed session arrive and reads its verdict and diagnosis, exports the PDF report
+// from the page, and compares two demo sessions at a chosen frequency.
+const clientBuilt = existsSync(path.join(process.env.CLIENT_DIR || 'dist/client', 'index.html'));
+const shots = artifactsDir('session-analysis');
+const designName = 'LC-Bridge front-end board HRB-204';
+const unitSerial = 'HRB204-0101';
+// Under a loaded machine a stream, a refit or a page can take seconds; polls wait up to this long.
+const patient = { timeout: 30_000 };
+let app: TestApp;
+let browser: Browser;
+let sessionId: string;
+let token: string;
+let designer: ReturnType<typeof request.agent>;
+
+async function signedInAgent(email: string) {
+  const agent = request.agent(app.url).set('Origin', app.origin);
+  await agent.post('/api/auth/sign-in').send({ email, password: 'bench-demo' }).expect(200);
+  return agent;
+}
+
+async function signIn(page: Page, email: string) {
+  await page.goto(`${app.url}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill('bench-demo');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}
+
+function stream(mode: 'differential' | 'common-mode'): Promise<{ code: number | null; output: string }> {
+  const args = ['--url', app.url, '--token', token, '--session', sessionId, '--mode', mode, '--simulate', '--points', '30', '--rate', '500'];
+  return new Promise((resolve, reject) => {
+    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'stream', ...args], { cwd: process.cwd(), stdio: ['ignore', 'pipe', 'pipe'] });
+    let output = '';
+    child.stdout.on('data', (chunk) => (output += chunk));
+    child.stderr.on('data', (chunk) => (output += chunk));
+    child.on('error', reject);
+    child.on('close', (code) => resolve({ code, output }));
+  });
+}
+
+const squash = (text: string) => text.replace(/\s+/g, ' ').trim();
+
+beforeAll(async () => {
+  if (!clientBuilt) throw new Error('The client is not built: run the suite with `npm test`, which builds it');
+  if (!existsSync(chromiumPath)) throw new Error(`Chromium is missing at ${chromiumPath}: npm test installs it`);
+  app = await startTestApp({ seed: 'demo' });
+  browser = await launchBrowser();
+  designer = await signedInAgent('designer@rejectra.test');
+  const technician = await signedInAgent('tech@rejectra.test');
+  const designs = (await designer.get('/api/designs').expect(200)).body.designs as DesignSummary[];
+  const design = designs.find((candidate) => candidate.name === designName)!;
+  const created = await technician
+    .post('/api/sessions')
+    .send({
+      designRevisionId: design.latestRevision.id,
+      unitSerial,
+      fixture: 'Bridge fixture BF-2',
+      ambientTemperatureC: 23.4,
+      differentialDrive: { acVolts: 0.1, acConvention: 'rms', dcVolts: 0 },
+      commonModeDrive: { acVolts: 1, acConvention: 'rms', dcVolts: 0 },
+    })
+    .expect(201);
+  sessionId = created.body.session.id;
+  token = (await technician.post('/api/tokens').send({ name: 'Journey bench PC' }).expect(201)).body.token.token;
+});
+afterAll(async () => {
+  await browser?.close();
+  await app?.close();
+});
+
+describe('session analysis in the browser', () => {
+  it('shows a streamed session filling in live, then its verdict and diagnosis, and exports the PDF report from the page', { timeout: 180_000 }, async () => {
+    const context = await browser.newContext({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
+    const page = await context.newPage();
+    await signIn(page, 'designer@rejectra.test');
+    await page.goto(`${app.url}/sessions/${sessionId}`);
+    await expect.poll(() => page.locator('[data-live-status="live"]').count(), patient).toBe(1);
+    await page.evaluate(() => ((window as unknown as { journeyMarker: string }).journeyMarker = 'not reloaded'));
+
+    const differential = await stream('differential');
+    expect(differential.code, differential.output).toBe(0);
+    await expect.poll(() => page.getByTestId('analysis-incomplete').textContent(), patient).toMatch(/Only a differential sweep so far \(30 points\)/);
+    await screenshot(page, shots, '01-only-differential-so-far');
+
+    const commonMode = await stream('common-mode');
+    expect(commonMode.code, commonMode.output).toBe(0);
+    await expect.poll(() => page.getByText('Analysis complete').count(), patient).toBe(1);
+    await expect.poll(() => page.locator('.u-over').count(), patient).toBeGreaterThanOrEqual(2);
+    expect(await page.evaluate(() => (window as unknown as { journeyMarker?: string }).journeyMarker)).toBe('not reloaded');
+
+    // The page says what the shared summary says about this analysis and design.
+    const analysis = (await designer.get(`/api/sessions/${sessionId}/analysis`).expect(200)).body.analysis as SessionAnalysis;
+    const session = (await designer.get(`/api/sessions/${sessionId}`).expect(200)).body.session;
+    const design = (await designer.get(`/api/designs/${session.design.id}`).expect(200)).body.design as DesignDetail;
+    const circuit = design.revisions.find((revision) => revision.id === session.designRevision.id)!.circuit;
+    const expected = summariseSession(analysis, circuit);
+    const verdict = page.getByTestId('verdict-sentence');
+    await expect.poll(async () => squash((await verdict.textContent()) ?? ''), patient).toBe(expected.sentence.charAt(0).toUpperCase() + expected.sentence.slice(1));
+    const diagnosis = expected.diagnosis!.sentences;
+    expect(diagnosis.length).toBeGreaterThan(0);
+    await expect.poll(async () => (await page.getByTestId('diagnosis').locator('li').allTextContents()).map(squash), patient).toEqual(diagnosis.map(squash));
+    expect(await page.getByTestId('regime-sentence').textContent()).toBe(analysis.fit!.regimeSentence);
+    expect(await page.getByTestId('dc-cmrr').textContent()).toMatch(/^\d+\.\d dB$/);
+    await expect.poll(() => page.locator('[data-band-state="ready"]').count(), patient).toBe(1);
+
+    // Hover readout: the frequency and every visible trace with its unit; a toggle hides a trace.
+    const plot = page.locator('.u-over').first();
+    await plot.scrollIntoViewIfNeeded();
+    const box = (await plot.boundingBox())!;
+    await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.5);
+    const readout = page.getByTestId('chart-readout').first();
+    await expect.poll(() => readout.textContent(), patient).toMatch(/(Hz|kHz).*Measured CMRR.*dB/);
+    await page.getByRole('checkbox', { name: 'Monte Carlo 5–95 %' }).uncheck();
+    await expect.poll(() => readout.textContent(), patient).not.toMatch(/Monte Carlo/);
+    await page.getByRole('checkbox', { name: 'Monte Carlo 5–95 %' }).check();
+    await page.mouse.move(box.x + box.width * 0.5, box.y + box.height * 0.5);
+    await screenshot(page, shots, '02-streamed-session-verdict-and-diagnosis');
+
+    // The PDF report from the page's own link holds the unit, the design and the verdict shown.
+    const shown = squash((await verdict.textContent()) ?? '');
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'PDF report' }).click()]);
+    const pdfPath = path.join(shots, 'report.pdf');
+    await download.saveAs(pdfPath);
+    const text = squash(execFileSync('pdftotext', ['-layout', pdfPath, '-'], { encoding: 'utf8' }));
+    expect(text).toContain(unitSerial);
+    expect(text).toContain(designName);
+    expect(text).toContain(shown);
+    await context.close();
+  });
+
+  it('compares two demo sessions overlaid, with the difference at a typed and then a clicked frequency', { timeout: 120_000 }, async () => {
+    const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+    const page = await context.newPage();
+    await signIn(page, 'designer@rejectra.test');
+    await page.getByRole('link', { name: 'Compare', exact: true }).click();
+    await expect.poll(() => page.getByText('Choose sessions to compare').count(), patient).toBe(1);
+    const search = page.getByLabel('Search sessions');
+    for (const serial of ['HRB204-0003', 'HRB204-0012']) {
+      await search.fill(serial);
+      await expect.poll(() => page.getByRole('button', { name: `Add ${serial}` }).count(), patient).toBe(1);
+      await page.getByRole('button', { name: `Add ${serial}` }).click();
+    }
+    await expect.poll(() => new URL(page.url()).searchParams.get('sessions')?.split(',').length, patient).toBe(2);
+    await expect.poll(() => page.getByTestId('compare-row').count(), patient).toBe(2);
+    await page.getByRole('textbox', { name: 'Comparison frequency' }).fill('20k');
+    await page.getByRole('button', { name: 'Compare here' }).click();
+    await expect.poll(() => new URL(page.url()).searchParams.get('f'), patient).toBe('20000');
+    await expect.poll(() => page.getByTestId('compare-sentence').textContent(), patient).toMatch(/^At 20 kHz, against HRB204-0003 \(\d+\.\d dB\): HRB204-0012 .*\d+\.\d dB (above|below)\.$/);
+    await screenshot(page, shots, '03-compare-two-demo-sessions');
+
+    // The view is its address: reopening it shows the same comparison.
+    const shared = page.url();
+    const second = await context.newPage();
+    await second.goto(shared);
+    await expect.poll(() => second.getByTestId('compare-row').count(), patient).toBe(2);
+    await second.close();
+
+    // A click on the chart picks the frequency.
+    const plot = page.locator('.u-over').first();
+    const box = (await plot.boundingBox())!;
+    await page.mouse.click(box.x + box.width * 0.3, box.y + box.height * 0.5);
+    await expect.poll(() => new URL(page.url()).searchParams.get('f'), patient).not.toBe('20000');
+    await expect.poll(() => page.getByTestId('compare-sentence').textContent(), patient).not.toMatch(/^At 20 kHz/);
+    await screenshot(page, shots, '04-compare-clicked-frequency');
+    await context.close();
+  });
+});
