@@ -54,8 +54,8 @@ function setUp() {
   const worker = new FakeWorker();
   const views: MonteCarloView[] = [];
   let clock = 0;
-  const measured: [number, number][] = [];
-  const client = new MonteCarloClient(worker, (view) => views.push(view), () => clock, (start, end) => measured.push([start, end]));
+  const measured: [number, number, number][] = [];
+  const client = new MonteCarloClient(worker, (view) => views.push(view), () => clock, (start, end, compute) => measured.push([start, end, compute]));
   return { worker, views, client, measured, tick: (ms: number) => (clock += ms) };
 }
 
@@ -72,7 +72,7 @@ describe('MonteCarloClient', () => {
     worker.answer(atFrequency(1));
     expect(views.at(-1)).toMatchObject({ pending: false, bandProgress: 0, error: null });
     expect(views.at(-1)?.atFrequency?.roundTripMs).toBe(12);
-    expect(measured).toEqual([[0, 12]]);
+    expect(measured).toEqual([[0, 12, 1]]); // the worker said it computed for 1 ms
   });
 
   it('keeps only the newest of the requests made while one is running, and sends it when the first answers', () => {

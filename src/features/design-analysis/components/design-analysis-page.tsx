@@ -1,4 +1,4 @@
-import { lazy, Suspense, useMemo, useState, type ReactNode } from 'react';
+import { lazy, Suspense, useCallback, useMemo, useState, type ReactNode } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { predictDesign } from '../../../../shared/design-prediction';
 import { worstCaseCmrrAtFrequency } from '../../../../shared/analysis/prediction-band';
@@ -116,7 +116,8 @@ function RevisionAnalysis({ designId, designName, revisions, revision, canEdit }
   const chart = useMemo(() => prepareDesignChart(prediction, band, mask), [prediction, band, mask]);
   const changes = explorerChanges(stored, circuit);
   const atFrequency = monteCarlo.atFrequency?.result ?? null;
-  const setFrequency = (value: number) => setState((current) => ({ ...current, frequencyHz: String(value) }));
+  const setFrequency = useCallback((value: number) => setState((current) => ({ ...current, frequencyHz: String(value) })), []);
+  const tryTolerance = useCallback((percent: string) => setState((current) => ({ ...current, toleranceMode: 'all', allTolerancePercent: percent })), []);
 
   const startRevision = () =>
     navigate(`/designs/${encodeURIComponent(designId)}`, { state: { explorerStart: { fromRevisionId: revision.id, circuit } } });
@@ -217,7 +218,9 @@ function RevisionAnalysis({ designId, designName, revisions, revision, canEdit }
                 ) : monteCarlo.atFrequency ? (
                   <>
                     <span className="tabular">{monteCarlo.atFrequency.result.trials.toLocaleString('en-GB')}</span> trials in{' '}
-                    <span className="tabular">{Math.max(1, Math.round(monteCarlo.atFrequency.roundTripMs))} ms</span>
+                    <span className="tabular" title={`${Math.round(monteCarlo.atFrequency.computeMs)} ms of it computing in the worker`}>
+                      {Math.max(1, Math.round(monteCarlo.atFrequency.roundTripMs))} ms
+                    </span>
                   </>
                 ) : null}
               </span>
@@ -282,7 +285,7 @@ function RevisionAnalysis({ designId, designName, revisions, revision, canEdit }
         <ToleranceTarget
           circuit={circuit}
           defaultTargetDb={Math.max(...mask.points.map((point) => point.minimumCmrrDb)) + mask.guardBandDb}
-          onTryTolerance={(percent) => setState((current) => ({ ...current, toleranceMode: 'all', allTolerancePercent: percent }))}
+          onTryTolerance={tryTolerance}
         />
       </div>
     </>

@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import type { MonteCarloAtFrequencyResult } from '../../../../shared/analysis/prediction-band';
@@ -13,13 +13,13 @@ const labelFont = '14px "IBM Plex Sans", system-ui, sans-serif';
  * The Monte Carlo histogram of CMRR at one frequency (uPlot bars): bins at or above the limit in
  * sky blue, below it in hatched vermilion, with the limit and the worst case marked by lines.
  */
-export default function HistogramChart({ result }: { result: MonteCarloAtFrequencyResult }) {
+function HistogramChart({ result }: { result: MonteCarloAtFrequencyResult }) {
   const container = useRef<HTMLDivElement>(null);
   const plot = useRef<uPlot | null>(null);
   const current = useRef<{ bars: HistogramBars; result: MonteCarloAtFrequencyResult } | null>(null);
   const [cursorIndex, setCursorIndex] = useState<number | null>(null);
   const limitDb = result.limitDb ?? null;
-  const bars = histogramBars(result.histogram, limitDb, result.worstCaseDb);
+  const bars = useMemo(() => histogramBars(result.histogram, limitDb, result.worstCaseDb), [result, limitDb]);
 
   useEffect(() => {
     const element = container.current;
@@ -70,7 +70,7 @@ export default function HistogramChart({ result }: { result: MonteCarloAtFrequen
   useEffect(() => {
     current.current = { bars, result };
     plot.current?.setData([bars.centresDb, bars.passingCounts, bars.failingCounts] as unknown as uPlot.AlignedData);
-  });
+  }, [bars, result]);
 
   const index = cursorIndex !== null && cursorIndex < bars.centresDb.length ? cursorIndex : null;
   const count = index === null ? null : (bars.passingCounts[index] ?? bars.failingCounts[index] ?? 0);
@@ -95,6 +95,9 @@ export default function HistogramChart({ result }: { result: MonteCarloAtFrequen
     </div>
   );
 }
+
+// Redrawn only when a new result arrives, not on every progress update of the page.
+export default memo(HistogramChart);
 
 /** Diagonal vermilion hatching for bins below the limit (distinct from the blue bars in grey print too). */
 function hatchPattern(): CanvasPattern | null {

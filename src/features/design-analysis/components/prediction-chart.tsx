@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState } from 'react';
+import { memo, useEffect, useMemo, useRef, useState } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
 import { formatDb, formatFrequencyHz } from '../../../lib/charts/log-frequency-axis';
@@ -24,7 +24,7 @@ type Props = {
  * band and median, worst case, limit; a hover readout below; a click picks the histogram's
  * frequency. Loaded with its own chunk (uPlot travels with it).
  */
-export default function PredictionChart({ chart, chosenFrequencyHz, onPickFrequency }: Props) {
+function PredictionChart({ chart, chosenFrequencyHz, onPickFrequency }: Props) {
   const container = useRef<HTMLDivElement>(null);
   const plot = useRef<uPlot | null>(null);
   const chosen = useRef(chosenFrequencyHz);
@@ -167,6 +167,9 @@ export default function PredictionChart({ chart, chosenFrequencyHz, onPickFreque
     </div>
   );
 }
+
+// Redrawn only when its data change, not on every progress update of the page.
+export default memo(PredictionChart);
 
 /** A small drawing of the trace's line style beside its toggle (the chart has no legend of its own). */
 function TraceSwatch({ group }: { group: (typeof traceGroups)[number]['id'] }) {

@@ -1,4 +1,4 @@
-import { useId, type ReactNode } from 'react';
+import { memo, useId, type ReactNode } from 'react';
 import type { Topology } from '../../../../shared/schemas/designs';
 import { parseEngineeringNumber } from '../../../lib/parse-number';
 import {
@@ -27,7 +27,7 @@ type Props = {
 };
 
 /** The explorer's controls: tolerances (all at once or per resistor), distribution, source resistances and op-amp data. */
-export function ToleranceExplorer({ topology, state, errors, onChange, storedOpAmpName }: Props) {
+export const ToleranceExplorer = memo(function ToleranceExplorer({ topology, state, errors, onChange, storedOpAmpName }: Props) {
   const set = (changes: Partial<ExplorerState>) => onChange((current) => ({ ...current, ...changes }));
   const sharedPercent = parseEngineeringNumber(state.allTolerancePercent);
   const resistors = explorerResistorsOf[topology];
@@ -120,7 +120,7 @@ export function ToleranceExplorer({ topology, state, errors, onChange, storedOpA
       </Group>
     </section>
   );
-}
+});
 
 function Group({ title, children }: { title: string; children: ReactNode }) {
   return (

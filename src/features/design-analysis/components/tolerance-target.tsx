@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { memo, useMemo, useState } from 'react';
 import type { ESeriesName } from '../../../../shared/engine/e-series';
 import type { Circuit } from '../../../../shared/schemas/designs';
 import { Button } from '../../../components/button';
@@ -15,7 +15,7 @@ type Props = {
 };
 
 /** "What tolerance do I need for X dB" at the design's gain, and the nearest E-series pairs for a gain. */
-export function ToleranceTarget({ circuit, defaultTargetDb, onTryTolerance }: Props) {
+export const ToleranceTarget = memo(function ToleranceTarget({ circuit, defaultTargetDb, onTryTolerance }: Props) {
   const [targetText, setTargetText] = useState(numberToField(defaultTargetDb));
   const gains = designGains(circuit);
   const [gainText, setGainText] = useState(numberToField(Number(gains.stageGain.toPrecision(6))));
@@ -139,7 +139,7 @@ export function ToleranceTarget({ circuit, defaultTargetDb, onTryTolerance }: Pr
       </section>
     </div>
   );
-}
+});
 
 function ToleranceResult({ answer, targetDb, inAmp, onTry }: { answer: ReturnType<typeof toleranceAnswer>; targetDb: number; inAmp: boolean; onTry: (percent: string) => void }) {
   if (answer.stageTargetDb <= 0) {
