@@ -30,6 +30,9 @@ export function prepareDesignChart(prediction: readonly PredictedPoint[], band: 
   return { frequencyHz: prepared.frequencyHz, series, bands: prepared.bands, yRangeDb };
 }
 
+/** Narrower sign bands than this are not named in the readout (below its 0.1 dB display step). */
+const SIGN_BAND_SHOWN_DB = 0.05;
+
 /** What the hover readout says at one grid index. */
 export interface DesignReadout {
   frequencyHz: number;
@@ -54,7 +57,8 @@ export function designReadout(chart: DesignChart, index: number): DesignReadout 
   return {
     frequencyHz: chart.frequencyHz[index],
     predictedDb: value('cmrr-predicted'),
-    signBandDb: low !== null && high !== null ? [Math.min(low, high), Math.max(low, high)] : null,
+    // Signs that agree to display precision (a matched nominal design) make no band worth naming.
+    signBandDb: low !== null && high !== null && Math.abs(high - low) >= SIGN_BAND_SHOWN_DB ? [Math.min(low, high), Math.max(low, high)] : null,
     monteCarloDb: p05 !== null && p50 !== null && p95 !== null ? { p05, p50, p95 } : null,
     worstCaseDb: value('cmrr-worst-case'),
     limitDb: limit,

@@ -191,7 +191,7 @@ function SpreadTable({ frequencies }: { frequencies: LotFrequencySummary[] }) {
                 ) : (
                   <ul>
                     {entry.outliers.map((outlier) => (
-                      <li key={outlier.sessionId} className="whitespace-nowrap">
+                      <li key={outlier.sessionId}>
                         <span aria-hidden="true">◇ </span>
                         <Link to={`/sessions/${encodeURIComponent(outlier.sessionId)}`} className="font-medium text-trace-700 underline underline-offset-2">
                           {outlier.unitSerial}
@@ -202,7 +202,7 @@ function SpreadTable({ frequencies }: { frequencies: LotFrequencySummary[] }) {
                   </ul>
                 )}
               </td>
-              <td className={`${cellClasses} max-w-md text-[0.9375rem]`}>
+              <td className={`${cellClasses} min-w-[16rem] text-[0.9375rem]`}>
                 {entry.spread ? (
                   <>
                     <span className="tabular">
