@@ -93,7 +93,10 @@ function RevisionAnalysis({ designId, designName, revisions, revision, canEdit }
   const frequencyHz = lastGood.frequencyHz;
 
   const bandFrequencies = useMemo(() => explorerFrequencies(mask, []), [mask]);
-  const prediction = useMemo(() => predictDesign(circuit, bandFrequencies), [circuit, bandFrequencies]);
+  // The nominal prediction ignores tolerances: a tolerance change (the common one) does not redo
+  // it on this thread (an in-amp's takes several ms).
+  const nominalKey = JSON.stringify({ ...circuit, toleranceDistribution: 'uniform', ...nominalValues(circuit) });
+  const prediction = useMemo(() => predictDesign(JSON.parse(nominalKey) as Circuit, bandFrequencies), [nominalKey, bandFrequencies]);
   const limitDb = useMemo(() => {
     try {
       return evaluateLimitMask(mask, frequencyHz);
@@ -290,6 +293,15 @@ function RevisionAnalysis({ designId, designName, revisions, revision, canEdit }
       </div>
     </>
   );
+}
+
+/** The resistors with their tolerances left out (what the nominal prediction depends on), each given a placeholder tolerance. */
+function nominalValues(circuit: Circuit): Record<string, { ohms: number; tolerance: number }> {
+  const values: Record<string, { ohms: number; tolerance: number }> = {};
+  for (const [key, value] of Object.entries(circuit)) {
+    if (value && typeof value === 'object' && 'ohms' in value) values[key] = { ohms: (value as { ohms: number }).ohms, tolerance: 0.001 };
+  }
+  return values;
 }
 
 function formatYield(fraction: number): string {
