@@ -1,4 +1,4 @@
-import { lazy, type ReactNode } from 'react';
+import { lazy, useEffect, type ReactNode } from 'react';
 import { Link, useParams, useRouteError } from 'react-router-dom';
 import { NeedsRole } from '../components/needs-role';
 import { PageHeader } from '../components/page-header';
@@ -18,7 +18,8 @@ const LotPage = lazy(() => import('../features/lots/components/lot-page'));
 const SessionsPage = lazy(() => import('../features/bench-sessions/components/sessions-page'));
 const StartSessionPage = lazy(() => import('../features/bench-sessions/components/start-session-page'));
 const SessionDetailPage = lazy(() => import('../features/bench-sessions/components/session-detail-page'));
-const SessionAnalysisView = lazy(() => import('../features/session-analysis/components/session-analysis-view'));
+const loadSessionAnalysisView = () => import('../features/session-analysis/components/session-analysis-view');
+const SessionAnalysisView = lazy(loadSessionAnalysisView);
 const ComparePage = lazy(() => import('../features/compare/components/compare-page'));
 const InstrumentsPage = lazy(() => import('../features/instruments/components/instruments-page'));
 const PeoplePage = lazy(() => import('../features/people/components/people-page'));
@@ -123,6 +124,10 @@ export function StartSessionRoute() {
 export function SessionDetailRoute() {
   const user = useSignedInUser();
   const { sessionId = '' } = useParams();
+  // The analysis view downloads alongside the page rather than once the analysis has arrived.
+  useEffect(() => {
+    void loadSessionAnalysisView();
+  }, []);
   return (
     <RoleGate id="sessions">
       <SessionDetailPage key={sessionId} sessionId={sessionId} user={user} analysisView={SessionAnalysisView} />

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { fitCmrrFrequencyResponse, logSpacedFrequencies, predictDifferenceAmplifier, type CmrrPoint } from '../../../shared/engine';
-import { fitParameterRows, marginStatement, monteCarloBandGrid, prepareResiduals } from '../../../src/features/session-analysis/components/analysis-figures';
+import { fitParameterRows, marginStatement, monteCarloBandGrid, prepareResiduals, thinPrediction, thinSessionPoints } from '../../../src/features/session-analysis/components/analysis-figures';
 import { pointsFromPrediction } from '../../shared/analysis/fixtures';
 
 function point(frequencyHz: number, cmrrDb: number, lowerBound = false): CmrrPoint {
@@ -94,5 +94,39 @@ describe('fitParameterRows', () => {
     expect(rows[0].detail).toMatch(/^95 %: \d+\.\d dB … \d+\.\d dB$/);
     expect(rows[1].value).toMatch(/ (Hz|kHz)$/);
     expect(rows[3].value).toMatch(/dB\/decade$/);
+  });
+});
+
+describe('thinSessionPoints and thinPrediction', () => {
+  const frequencies = logSpacedFrequencies(10, 1e5, 20_000);
+  const points = frequencies.map((frequencyHz, index) => point(frequencyHz, index === 7_777 ? 40 : 80, index % 1000 === 0));
+  const fit = { fittedCmrrDb: points.map((_, index) => index), residualsDb: points.map((_, index) => -index) } as unknown as Parameters<typeof thinSessionPoints>[1];
+
+  it('keeps a few points per pixel column, the worst resolved one among them, with the fit values that belong to them', () => {
+    const thinned = thinSessionPoints(points, fit, 200);
+    expect(thinned.points.length).toBeLessThanOrEqual(200 * 10);
+    expect(thinned.points.some((kept) => kept.cmrrDb === 40)).toBe(true);
+    const at = thinned.keptIndices!;
+    thinned.points.forEach((kept, index) => {
+      expect(kept).toBe(points[at[index]]);
+      expect(thinned.fit!.fittedCmrrDb[index]).toBe(at[index]);
+      expect(thinned.fit!.residualsDb[index]).toBe(-at[index]);
+    });
+  });
+
+  it('leaves a short session as it is', () => {
+    const few = points.slice(0, 50);
+    expect(thinSessionPoints(few, null, 200)).toEqual({ points: few, fit: null, keptIndices: null });
+  });
+
+  it('thins a prediction aligned with the points by the points\' own choice, and an unaligned one by its own extremes', () => {
+    const prediction = frequencies.map((frequencyHz) => ({ frequencyHz, adDb: 20, acmDb: -60, cmrrDb: 80 - Math.log10(frequencyHz), cmrrBandLowDb: 79, cmrrBandHighDb: 81 }));
+    const thinned = thinSessionPoints(points, null, 200);
+    const aligned = thinPrediction(prediction, 200, { points, keptIndices: thinned.keptIndices });
+    expect(aligned.map((entry) => entry.frequencyHz)).toEqual(thinned.points.map((entry) => entry.frequencyHz));
+    const own = thinPrediction(prediction, 200);
+    expect(own.length).toBeLessThanOrEqual(200 * 12);
+    expect(own[0].frequencyHz).toBe(10);
+    expect(own.at(-1)!.frequencyHz).toBe(1e5);
   });
 });

@@ -3,6 +3,7 @@
 // is computed on. Pure, so tests read them without a browser.
 import type { CmrrPoint } from '../../../../shared/engine/cmrr-points';
 import type { FrequencyFit } from '../../../../shared/engine/frequency-fit';
+import type { PredictedPoint } from '../../../../shared/design-prediction';
 import type { LimitVerdict } from '../../../../shared/schemas/analysis';
 import { decimateForLogAxis } from '../../../lib/charts/decimation';
 import { formatDb, formatFrequencyHz } from '../../../lib/charts/log-frequency-axis';
@@ -131,4 +132,106 @@ export function monteCarloBandGrid(minimumHz: number, maximumHz: number, perDeca
   const steps = (lastDecade - firstDecade) * perDecade;
   const frequenciesHz = Array.from({ length: steps + 1 }, (_, step) => Number((10 ** (firstDecade + step / perDecade)).toPrecision(12)));
   return { firstDecade, lastDecade, frequenciesHz };
+}
+
+/**
+ * The design's prediction thinned for drawing: the server predicts at every measured frequency
+ * (100,000 points for a long sweep), far more than a chart has pixel columns. Above 4 × widthPx
+ * points, keeps per pixel column of the log axis the first, last, lowest and highest point of the
+ * nominal curve and of both op-amp-sign edges (decimateForLogAxis), so the drawn curve and band
+ * are unchanged. Sorted by frequency; points at 0 Hz or below dropped. O(n) (O(n log n) unsorted);
+ * O(kept) when `alignedKeep` gives the measured points' thinning and the prediction lines up with them.
+ */
+export function thinPrediction(prediction: readonly PredictedPoint[], widthPx: number, alignedKeep?: { points: readonly CmrrPoint[]; keptIndices: Uint32Array | null }): PredictedPoint[] {
+  // The server predicts at the measured frequencies: where the prediction lines up with the points,
+  // the points' own thinning serves it too (a smooth curve needs no extremes of its own).
+  if (alignedKeep?.keptIndices && prediction.length === alignedKeep.points.length) {
+    const picked: PredictedPoint[] = [];
+    let aligned = true;
+    for (const index of alignedKeep.keptIndices) {
+      const point = prediction[index];
+      if (point.frequencyHz !== alignedKeep.points[index].frequencyHz) {
+        aligned = false;
+        break;
+      }
+      if (point.frequencyHz > 0) picked.push(point);
+    }
+    if (aligned) return picked;
+  }
+  const usable: PredictedPoint[] = [];
+  let sorted = true;
+  for (const point of prediction) {
+    if (!(point.frequencyHz > 0)) continue;
+    if (usable.length > 0 && point.frequencyHz < usable[usable.length - 1].frequencyHz) sorted = false;
+    usable.push(point);
+  }
+  if (!sorted) usable.sort((a, b) => a.frequencyHz - b.frequencyHz);
+  if (usable.length <= 4 * widthPx) return usable;
+  // Plain loops into typed arrays: Float64Array.from with a callback is several times slower on 100,000 points in V8.
+  const count = usable.length;
+  const frequencyHz = new Float64Array(count);
+  const curves = [new Float64Array(count), new Float64Array(count), new Float64Array(count), new Float64Array(count), new Float64Array(count)];
+  for (let index = 0; index < count; index++) {
+    const point = usable[index];
+    frequencyHz[index] = point.frequencyHz;
+    curves[0][index] = point.cmrrDb ?? Number.NaN;
+    curves[1][index] = point.cmrrBandLowDb ?? Number.NaN;
+    curves[2][index] = point.cmrrBandHighDb ?? Number.NaN;
+    curves[3][index] = point.adDb;
+    curves[4][index] = point.acmDb ?? Number.NaN;
+  }
+  const kept = decimateForLogAxis(frequencyHz, curves, widthPx);
+  const out = new Array<PredictedPoint>(kept.length);
+  for (let index = 0; index < kept.length; index++) out[index] = usable[kept[index]];
+  return out;
+}
+
+/**
+ * A long session's CMRR points thinned for drawing, with the fit's per-point values picked to
+ * match (the smooth description is drawn from them). Above 4 × widthPx points, keeps per pixel
+ * column of the log axis the first and last point and the lowest and highest of: resolved CMRR,
+ * floor-limited CMRR, |Ad| and |Acm| (decimateForLogAxis). The lowest resolved point of a column is
+ * its worst margin wherever the limit is flat across the column, so a column with a failing point
+ * keeps one. Done once per analysis, so a limit mask or Monte Carlo band arriving later does not
+ * walk all the points again. `keptIndices` (null when nothing was thinned) are indices into
+ * `points`, rising in frequency. O(n) (n log n when unsorted).
+ */
+export function thinSessionPoints(
+  points: readonly CmrrPoint[],
+  fit: FrequencyFit | null,
+  widthPx: number,
+): { points: CmrrPoint[]; fit: FrequencyFit | null; keptIndices: Uint32Array | null } {
+  const count = points.length;
+  if (count <= 4 * widthPx) return { points: points as CmrrPoint[], fit, keptIndices: null };
+  const order = new Uint32Array(count);
+  let sorted = true;
+  for (let index = 0; index < count; index++) {
+    order[index] = index;
+    if (index > 0 && points[index].frequencyHz < points[index - 1].frequencyHz) sorted = false;
+  }
+  if (!sorted) order.sort((a, b) => points[a].frequencyHz - points[b].frequencyHz);
+  const frequencyHz = new Float64Array(count);
+  const resolved = new Float64Array(count);
+  const bounds = new Float64Array(count);
+  const adDb = new Float64Array(count);
+  const acmDb = new Float64Array(count);
+  for (let at = 0; at < count; at++) {
+    const point = points[order[at]];
+    frequencyHz[at] = point.frequencyHz;
+    resolved[at] = point.lowerBound ? Number.NaN : point.cmrrDb;
+    bounds[at] = point.lowerBound ? point.cmrrDb : Number.NaN;
+    adDb[at] = point.ad;
+    acmDb[at] = point.acm;
+  }
+  // Magnitudes rather than dB: the extremes are the same points, and no logarithms are needed.
+  const kept = decimateForLogAxis(frequencyHz, [resolved, bounds, adDb, acmDb], widthPx);
+  const keptIndices = new Uint32Array(kept.length);
+  const thinned = new Array<CmrrPoint>(kept.length);
+  for (let index = 0; index < kept.length; index++) {
+    keptIndices[index] = order[kept[index]];
+    thinned[index] = points[keptIndices[index]];
+  }
+  if (!fit) return { points: thinned, fit, keptIndices };
+  const pick = (values: number[]) => (values.length === count ? Array.from(keptIndices, (index) => values[index]) : values);
+  return { points: thinned, fit: { ...fit, fittedCmrrDb: pick(fit.fittedCmrrDb), residualsDb: pick(fit.residualsDb) }, keptIndices };
 }

@@ -1,7 +1,7 @@
 // The session view (issue 5): CMRR and gain charts against the design, the fit with its
 // uncertainty, the verdict, the diagnosis against the design, and the session's exports. Updates in
 // place while a sweep streams in: new analyses reach the charts through setData.
-import { lazy, Suspense, useCallback, useMemo, useRef, useState, type ReactNode } from 'react';
+import { lazy, Suspense, useCallback, useDeferredValue, useMemo, useRef, useState, type ReactNode } from 'react';
 import { summariseSession, type SessionSummary } from '../../../../shared/analysis/session-summary';
 import type { SessionAnalysis } from '../../../../shared/schemas/analysis';
 import type { BenchSessionDetail } from '../../../../shared/schemas/bench-sessions';
@@ -13,12 +13,15 @@ import { prepareSessionCharts } from '../../../lib/charts/session-chart-data';
 import { formatDateTime } from '../../../lib/format-date';
 import { useDesignRevision } from '../api/get-design-revision';
 import { SESSION_BAND_TRIALS, useMonteCarloBand } from '../hooks/use-monte-carlo-band';
-import { fitParameterRows, marginStatement, prepareResiduals } from './analysis-figures';
+import { fitParameterRows, marginStatement, prepareResiduals, thinPrediction, thinSessionPoints } from './analysis-figures';
 import { alignToFixedSeries, cmrrSeries, gainSeries, type TraceGroup } from './chart-series';
 
-// uPlot travels only with the charts' own chunk.
-const SessionCharts = lazy(() => import('./session-charts'));
-const ResidualChart = lazy(() => import('./session-charts').then((module) => ({ default: module.ResidualChart })));
+// uPlot travels only with the charts' own chunk, fetched as soon as this view's chunk runs so it
+// is usually there before the analysis is; once loaded, the charts render without suspending.
+let chartsModule: typeof import('./session-charts') | null = null;
+const chartsLoading = import('./session-charts').then((module) => (chartsModule = module));
+const LazySessionCharts = lazy(() => chartsLoading.then((module) => ({ default: module.default })));
+const LazyResidualChart = lazy(() => chartsLoading.then((module) => ({ default: module.ResidualChart })));
 
 export interface SessionAnalysisViewProps {
   session: BenchSessionDetail;
@@ -52,6 +55,13 @@ function OutcomeBadge({ outcome }: { outcome: string }) {
 }
 
 const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+
+/** The charts' plot width for a viewport width: the layout's columns taken off, rounded up generously. */
+function chartWidthEstimatePx(viewportPx: number): number {
+  const content = Math.min(viewportPx, 1408 + 264) - (viewportPx >= 1024 ? 264 : 0) - 64;
+  const charts = viewportPx >= 1280 ? content - 384 - 24 : content;
+  return Math.max(480, Math.min(1600, Math.round(charts)));
+}
 
 /** Where the session's charts measure their speed (bench/session-chart.bench.ts reads these). */
 function markChartsDrawn(analysisUpdatedAt: number): void {
@@ -91,28 +101,37 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
     return low > 0 && high >= low ? [low, high] : null;
   }, [analysis.points]);
   const band = useMonteCarloBand(session.designRevision.id, circuit, rangeHz);
-  // Decimate to the widest the charts can be on this screen: at most one kept column per pixel.
-  const [widthPx] = useState(() => Math.min(2000, Math.max(640, Math.round(window.innerWidth))));
+  // Decimate to about the charts' width on this screen (beside the 24 rem column from 1280 px, the
+  // navigation column from 1024 px): a few kept points per pixel column, never fewer than pixels.
+  const [widthPx] = useState(() => chartWidthEstimatePx(window.innerWidth));
   const [hidden, setHidden] = useState<ReadonlySet<TraceGroup>>(() => new Set());
   const limitMask = revision?.limitMask ?? null;
-  const prepared = useMemo(
-    () =>
-      prepareSessionCharts(
-        { points: analysis.points, fit: analysis.fit, prediction: analysis.prediction, monteCarloBand: band.data, limitMask },
-        { widthPx },
-      ),
-    [analysis.points, analysis.fit, analysis.prediction, band.data, limitMask, widthPx],
-  );
+  // Long sessions are thinned once per analysis; the limit and the Monte Carlo band, which arrive
+  // later, then only re-prepare the thinned points.
+  const thinned = useMemo(() => thinSessionPoints(analysis.points, analysis.fit, widthPx), [analysis.points, analysis.fit, widthPx]);
+  const prediction = useMemo(() => thinPrediction(analysis.prediction, widthPx, { points: analysis.points, keptIndices: thinned.keptIndices }), [analysis.prediction, analysis.points, thinned, widthPx]);
+  const prepared = useMemo(() => {
+    const charts = prepareSessionCharts({ points: thinned.points, fit: thinned.fit, prediction, monteCarloBand: band.data, limitMask }, { widthPx });
+    return { ...charts, totalPointCount: analysis.points.length };
+  }, [thinned, prediction, band.data, limitMask, widthPx, analysis.points.length]);
   const cmrr = useMemo(() => alignToFixedSeries(prepared.cmrr, cmrrSeries), [prepared]);
   const gains = useMemo(() => alignToFixedSeries(prepared.gains, gainSeries), [prepared]);
-  const residuals = useMemo(() => (analysis.fit && analysis.fit.residualsDb.length > 0 ? prepareResiduals(analysis.points, analysis.fit, 480) : null), [analysis.points, analysis.fit]);
+  // The verdict, diagnosis and residuals follow the charts in a render of their own (the
+  // diagnosis runs a 20,000-trial Monte Carlo; a long sweep's residuals are 100,000 points), so a
+  // new analysis reaches the charts first.
+  const settled = useDeferredValue(analysis, null);
+  const residuals = useMemo(
+    () => (settled?.fit && settled.fit.residualsDb.length > 0 ? prepareResiduals(settled.points, settled.fit, 480) : null),
+    [settled],
+  );
   const summary = useMemo(() => {
+    if (!settled) return null;
     try {
-      return { value: summariseSession(analysis, circuit), error: null };
+      return { value: summariseSession(settled, circuit), error: null };
     } catch (error) {
-      return { value: summariseSession(analysis, null), error: errorMessage(error) };
+      return { value: summariseSession(settled, null), error: errorMessage(error) };
     }
-  }, [analysis, circuit]);
+  }, [settled, circuit]);
 
   const drawn = useRef({ cmrr: -1, gains: -1, marked: -1 });
   const onDrawn = useCallback((chart: 'cmrr' | 'gains', version: number) => {
@@ -134,8 +153,8 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
 
   const status = statusAppearance[analysis.status];
   const fit = analysis.fit;
-  const margin = marginStatement(summary.value.tightest, summary.value.predictedAtTightestDb);
-  const diagnosis = summary.value.diagnosis;
+  const margin = summary ? marginStatement(summary.value.tightest, summary.value.predictedAtTightestDb) : null;
+  const diagnosis = summary?.value.diagnosis ?? null;
   return (
     <div className="space-y-5">
       <div className="flex flex-wrap items-center justify-between gap-3">
@@ -152,10 +171,16 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
       </div>
 
       <div className="flex flex-wrap items-center gap-3 rounded-md border border-ink-200 bg-ink-50 px-4 py-3" data-testid="session-verdict" aria-live="polite">
-        <OutcomeBadge outcome={summary.value.outcome} />
-        <p className="text-lg text-ink-900" data-testid="verdict-sentence">
-          {capitalise(summary.value.sentence)}
-        </p>
+        {summary ? (
+          <>
+            <OutcomeBadge outcome={summary.value.outcome} />
+            <p className="text-lg text-ink-900" data-testid="verdict-sentence">
+              {capitalise(summary.value.sentence)}
+            </p>
+          </>
+        ) : (
+          <p className="text-ink-700">Reading the verdict…</p>
+        )}
       </div>
 
       {analysis.points.length === 0 ? (
@@ -167,7 +192,7 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
           <div className="min-w-0 space-y-2">
             {analysis.status !== 'complete' && analysis.message && <p className="text-ink-800">{analysis.message}</p>}
             <Suspense fallback={<LoadingState label="Loading the charts…" />}>
-              <SessionCharts
+              <SessionChartsNow
                 cmrr={cmrr}
                 gains={gains}
                 prepared={prepared}
@@ -232,7 +257,9 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
                 </ul>
               ) : (
                 <p className="text-ink-700">
-                  {summary.error
+                  {!summary
+                    ? 'Working out the diagnosis…'
+                    : summary.error
                     ? `The design's circuit could not be used: ${summary.error}`
                     : !fit
                       ? 'The diagnosis needs a fit of the measured curve.'
@@ -245,7 +272,7 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
             {residuals && (
               <Panel title="Residuals">
                 <Suspense fallback={<LoadingState label="Loading the residual plot…" />}>
-                  <ResidualChart residuals={residuals} version={analysisUpdatedAt} syncKey={`session-${session.id}`} />
+                  <ResidualChartNow residuals={residuals} version={analysisUpdatedAt} syncKey={`session-${session.id}`} />
                 </Suspense>
                 <p className="mt-1 text-[0.875rem] text-ink-600">
                   rms <span className="tabular">{formatDb(fit?.residualRmsDb, { digits: 2 })}</span>
@@ -274,6 +301,16 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
       {analysis.points.length > 0 && <PointsTable analysis={analysis} />}
     </div>
   );
+}
+
+function SessionChartsNow(props: Parameters<typeof import('./session-charts').default>[0]) {
+  const Charts = chartsModule?.default ?? LazySessionCharts;
+  return <Charts {...props} />;
+}
+
+function ResidualChartNow(props: Parameters<typeof import('./session-charts').ResidualChart>[0]) {
+  const Chart = chartsModule?.ResidualChart ?? LazyResidualChart;
+  return <Chart {...props} />;
 }
 
 function BandNote({ state, message }: { state: 'waiting' | 'computing' | 'ready' | 'error' | 'no-design'; message: string | null }) {

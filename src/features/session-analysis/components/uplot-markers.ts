@@ -44,12 +44,19 @@ export function markerPaths(shape: MarkerShape, sizePx: number, filled: boolean)
     const size = sizePx * uPlot.pxRatio;
     const path = new Path2D();
     const { left, top, width, height } = u.bbox;
+    // One marker per cell of a third of the marker's size: where thousands of points crowd a few
+    // pixels, the markers hidden under their neighbours are not drawn (the picture is the same).
+    const cell = Math.max(1, size / 3);
+    const drawn = new Set<number>();
     for (let index = idx0; index <= idx1; index++) {
       const value = ys[index];
       if (value === null || value === undefined) continue;
       const x = u.valToPos(xs[index], 'x', true);
       const y = u.valToPos(value, u.series[seriesIdx].scale ?? 'y', true);
       if (x < left - size || x > left + width + size || y < top - size || y > top + height + size) continue;
+      const key = Math.round(x / cell) * 100_000 + Math.round(y / cell);
+      if (drawn.has(key)) continue;
+      drawn.add(key);
       addShape(path, shape, x, y, size);
     }
     return { stroke: path, fill: filled ? path : null };
