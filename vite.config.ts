@@ -17,7 +17,7 @@ export default defineConfig({
     include: ['tests/**/*.test.ts', 'tests/**/*.test.tsx'],
     testTimeout: 60_000,
     // Browser journeys wait on pages; a loaded CI machine can take seconds per step.
-    expect: { poll: { timeout: 15_000, interval: 100 } },
+    expect: { poll: { timeout: 15_000 } },
     hookTimeout: 60_000,
     pool: 'forks',
     fileParallelism: true,
