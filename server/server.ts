@@ -10,6 +10,7 @@ import type { ServerConfig } from './config';
 import { openDatabase } from './db';
 import { createMailer } from './mail/mailer';
 import { loadSessionAnalysis } from './analysis/load-session-analysis';
+import { liveAnalysisMaximumPoints, thinAnalysis } from './analysis/thin-analysis';
 import { createSessionHub } from './live/session-hub';
 import { attachStreamServer } from './live/stream-server';
 import { migrateToLatest } from './migrate';
@@ -46,7 +47,11 @@ export async function startServer(
     config,
     database,
     hub: createSessionHub({
-      refit: (sessionId) => loadSessionAnalysis({ database, now }, sessionId),
+      // Viewers get the refit thinned for drawing, as the page asks for it over REST.
+      refit: async (sessionId) => {
+        const analysis = await loadSessionAnalysis({ database, now }, sessionId);
+        return analysis && thinAnalysis(analysis, liveAnalysisMaximumPoints);
+      },
       refitIntervalMs: 250,
       onError: (error) => logger.error({ err: error }, 'live refit failed'),
     }),

@@ -24,4 +24,6 @@ export interface SessionAnalysis {
   prediction: PredictedPoint[];
   limits: { guardBandDb: number; overall: LimitOutcome; verdicts: LimitVerdict[] } | null;
   computedAt: string;
+  /** Set when the points were thinned for drawing (GET …/analysis?maxPoints=N): how many there were. */
+  thinnedFrom?: number;
 }

@@ -301,3 +301,52 @@ describe('personal access tokens', () => {
     expect((await lead.delete(`/api/tokens/${created.body.token.id}`)).status).toBe(404);
   });
 });
+
+describe('thinning an analysis for drawing', () => {
+  it('keeps every column extreme, the ends and the failures, aligned across points, prediction, fit and verdicts', async () => {
+    const { thinAnalysis } = await import('../../server/analysis/thin-analysis');
+    const count = 5000;
+    const points = Array.from({ length: count }, (_, index) => ({
+      frequencyHz: 10 * 10 ** ((4 * index) / (count - 1)),
+      ad: 10,
+      acm: 1e-4,
+      // A smooth curve with one deep notch, which a thinned copy must still show.
+      cmrrDb: index === 2500 ? 60 : 100 - index / 500,
+      lowerBound: false,
+      interpolated: false,
+      commonModeLine: index + 1,
+    }));
+    const verdicts = points.map((point) => ({ frequencyHz: point.frequencyHz, cmrrDb: point.cmrrDb, lowerBound: false, limitDb: 70, marginDb: point.cmrrDb - 70, outcome: point.cmrrDb < 70 ? ('fail' as const) : ('pass' as const) }));
+    const analysis = {
+      sessionId: 's',
+      status: 'complete' as const,
+      message: null,
+      pointCounts: { differential: count, commonMode: count },
+      points,
+      fit: null,
+      warnings: [],
+      prediction: points.map((point) => ({ frequencyHz: point.frequencyHz, adDb: 20, acmDb: -80, cmrrDb: 100, cmrrBandLowDb: 99, cmrrBandHighDb: 101 })),
+      limits: { guardBandDb: 0, overall: 'fail' as const, verdicts },
+      computedAt: '',
+    };
+    const thinned = thinAnalysis(analysis, 400);
+    expect(thinned.thinnedFrom).toBe(count);
+    expect(thinned.points.length).toBeLessThanOrEqual(401);
+    expect(thinned.points[0]).toBe(points[0]);
+    expect(thinned.points.at(-1)).toBe(points.at(-1));
+    expect(thinned.points.some((point) => point.cmrrDb === 60)).toBe(true);
+    thinned.points.forEach((point, index) => {
+      expect(thinned.prediction[index].frequencyHz).toBe(point.frequencyHz);
+      expect(thinned.limits!.verdicts[index].frequencyHz).toBe(point.frequencyHz);
+    });
+    expect(thinAnalysis(analysis, 10_000)).toBe(analysis);
+  });
+
+  it('refuses a maxPoints outside 100 to 1,000,000', async () => {
+    const lead = await signedIn('lead@rejectra.test');
+    const list = await lead.get('/api/sessions');
+    const response = await lead.get(`/api/sessions/${list.body.items[0].id}/analysis?maxPoints=5`);
+    expect(response.status).toBe(400);
+    expect(response.body.fields.maxPoints).toBeDefined();
+  });
+});

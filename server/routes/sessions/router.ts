@@ -5,6 +5,7 @@ import { benchSessionListQuerySchema, createBenchSessionSchema } from '../../../
 import { deleteSweepSchema, sweepPointsQuerySchema } from '../../../shared/schemas/sweeps';
 import type { AppContext } from '../../app-context';
 import { loadSessionAnalysis } from '../../analysis/load-session-analysis';
+import { thinAnalysis } from '../../analysis/thin-analysis';
 import { authenticate, authorize } from '../../auth/middleware';
 import { badRequest, notFound } from '../../http/errors';
 import { validateBody } from '../../http/validate';
@@ -198,9 +199,13 @@ export function sessionsRouter(context: AppContext): Router {
   });
 
   router.get('/:id/analysis', async (request, response) => {
+    const maxPoints = request.query.maxPoints === undefined ? null : Number(request.query.maxPoints);
+    if (maxPoints !== null && !(Number.isInteger(maxPoints) && maxPoints >= 100 && maxPoints <= 1_000_000)) {
+      throw badRequest('maxPoints must be a whole number from 100 to 1,000,000', { maxPoints: 'from 100 to 1,000,000' });
+    }
     const analysis = await loadSessionAnalysis(context, String(request.params.id));
     if (!analysis) throw notFound('No such bench session');
-    response.json({ analysis });
+    response.json({ analysis: maxPoints === null ? analysis : thinAnalysis(analysis, maxPoints) });
   });
 
   return router;

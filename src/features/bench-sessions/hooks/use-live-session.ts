@@ -88,6 +88,7 @@ export function useLiveSession(sessionId: string): LiveState {
       );
     };
 
+    let subscribedBefore = false;
     function connect() {
       const protocol = window.location.protocol === 'https:' ? 'wss' : 'ws';
       socket = new WebSocket(`${protocol}://${window.location.host}/ws`);
@@ -104,8 +105,10 @@ export function useLiveSession(sessionId: string): LiveState {
         } else if (message.type === 'subscribed') {
           attempt = 0;
           setState({ status: 'live', lastPointAt: null });
-          // Whatever happened while we were away: read it once.
-          void queryClient.invalidateQueries({ queryKey: sessionQueryKey(sessionId) });
+          // After a reconnect, read once whatever happened while we were away. On the first
+          // subscription the page has just read it all, and the server sends a refit anyway.
+          if (subscribedBefore) void queryClient.invalidateQueries({ queryKey: sessionQueryKey(sessionId) });
+          subscribedBefore = true;
         } else if (message.type === 'error') {
           setState({ status: 'stopped', message: message.message });
         } else {

@@ -49,7 +49,7 @@ export function useComparedSessions(sessionIds: readonly string[]): ComparedSess
   const analyses = useQueries({
     queries: sessionIds.map((sessionId) => ({
       queryKey: [...compareKey, 'analysis', sessionId],
-      queryFn: ({ signal }: { signal: AbortSignal }) => apiRequest<{ analysis: SessionAnalysis }>(`/api/sessions/${encodeURIComponent(sessionId)}/analysis`, { signal }),
+      queryFn: ({ signal }: { signal: AbortSignal }) => apiRequest<{ analysis: SessionAnalysis }>(`/api/sessions/${encodeURIComponent(sessionId)}/analysis?maxPoints=4000`, { signal }),
       staleTime: 60_000,
     })),
     combine: combineSettled<{ analysis: SessionAnalysis }>,
