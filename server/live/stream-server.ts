@@ -210,7 +210,8 @@ export function attachStreamServer(server: Server, context: AppContext): StreamS
         if (!(await BenchSession.findByPk(message.sessionId))) throw new StreamRefusal(`No bench session ${message.sessionId}`, streamCloseCodes.notFound);
         context.hub.subscribe(message.sessionId, socket);
         send(socket, { type: 'subscribed', sessionId: message.sessionId });
-        context.hub.requestRefit(message.sessionId);
+        // No refit here: a viewer reads the current analysis over REST when it opens the session,
+        // and a refit of a long session is seconds of server work; refits follow new points.
         return;
       }
       case 'unsubscribe': {
