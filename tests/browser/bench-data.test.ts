@@ -94,9 +94,12 @@ describe('bench data in', () => {
     await signIn(tech, 'tech@rejectra.test');
     await tech.getByRole('link', { name: 'Bench sessions', exact: true }).click();
     await tech.getByRole('link', { name: 'Start a bench session' }).click();
+    // The list page has a "Design" filter of its own: act only once the form has replaced it.
+    await tech.waitForURL(/\/sessions\/new$/);
+    await expect.poll(() => tech.getByRole('form', { name: 'Start a bench session' }).count(), patient).toBe(1);
 
     // The form: design and revision, unit, instruments, drives; a hazardous drive needs the caution read.
-    await tech.getByLabel('Design', { exact: true }).selectOption({ label: designName });
+    await tech.getByRole('form', { name: 'Start a bench session' }).getByLabel('Design', { exact: true }).selectOption({ label: designName });
     await expect.poll(() => tech.getByLabel('Design revision').locator('option', { hasText: 'latest' }).count(), patient).toBe(1);
     await tech.getByLabel('Unit serial number').fill(unitSerial);
     await tech.getByLabel('Fixture').fill('Rail fixture RF-48, isolated common-mode injection');
