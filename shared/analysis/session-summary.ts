@@ -58,6 +58,12 @@ function lowestMargin(verdicts: readonly LimitVerdict[], outcome?: LimitOutcome)
  * @throws EngineInputError only through diagnoseAgainstDesign (an unusable circuit)
  * @example summariseSession(analysis, circuit).sentence // → "passes with 3.2 dB margin at 20 kHz"
  */
+/** A message written as a sentence, continued after a colon: lower-case start, no closing full stop. */
+function asClause(message: string): string {
+  const trimmed = message.trim().replace(/\.$/, '');
+  return /^[A-Z][a-z]/.test(trimmed) ? trimmed.charAt(0).toLowerCase() + trimmed.slice(1) : trimmed;
+}
+
 export function summariseSession(analysis: SessionAnalysis, circuit: Circuit | null): SessionSummary {
   const diagnosis = circuit && analysis.fit ? diagnoseAgainstDesign(analysis.fit, analysis.points, circuit) : null;
   const predictedAt = (frequencyHz: number): number | null => {
@@ -69,7 +75,7 @@ export function summariseSession(analysis: SessionAnalysis, circuit: Circuit | n
     );
   };
   if (analysis.status !== 'complete' && analysis.points.length === 0) {
-    return { outcome: 'no-data', tightest: null, sentence: `No verdict yet: ${analysis.message ?? 'the analysis is not complete'}.`, predictedAtTightestDb: null, diagnosis };
+    return { outcome: 'no-data', tightest: null, sentence: `No verdict yet: ${asClause(analysis.message ?? 'the analysis is not complete')}.`, predictedAtTightestDb: null, diagnosis };
   }
   if (!analysis.limits) {
     return { outcome: 'no-limit', tightest: null, sentence: 'No verdict: the design revision has no limit mask.', predictedAtTightestDb: null, diagnosis };

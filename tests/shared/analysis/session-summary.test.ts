@@ -67,6 +67,9 @@ describe('summariseSession', () => {
     expect(summariseSession({ ...analysisOf([point(10, 90)]), limits: null }, null).outcome).toBe('no-limit');
     const empty = { ...analysisOf([]), status: 'incomplete' as const, message: 'the common-mode sweep is missing', points: [] };
     expect(summariseSession(empty, null).sentence).toBe('No verdict yet: the common-mode sweep is missing.');
+    // The server's own message is a sentence; after the colon it reads as a clause.
+    const fromServer = { ...empty, message: 'Needs a common-mode sweep of at least 2 frequencies before CMRR can be computed' };
+    expect(summariseSession(fromServer, null).sentence).toBe('No verdict yet: needs a common-mode sweep of at least 2 frequencies before CMRR can be computed.');
   });
 
   it('adds the diagnosis against the design when there is a fit and a circuit', () => {
