@@ -7,7 +7,7 @@ import 'uplot/dist/uPlot.min.css';
 import { formatDb, formatFrequencyHz, logFrequencyTicks } from '../../../lib/charts/log-frequency-axis';
 import type { ComparisonChart } from './compare-chart-data';
 import { sessionStyle } from './compare-styles';
-import { markerPaths } from './uplot-markers';
+import { markerPaths } from '../../../lib/charts/uplot-markers';
 
 const axisFont = '12px "JetBrains Mono", monospace';
 const labelFont = '14px "IBM Plex Sans", sans-serif';

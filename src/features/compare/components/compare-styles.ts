@@ -1,6 +1,8 @@
 // How each session of a comparison is drawn (docs/CHARTS.md "Compare"): its own colour and marker
 // shape, so sessions separate without colour; bounds stay open upward triangles in the session's colour.
-export type MarkerShape = 'circle' | 'square' | 'triangle-up' | 'triangle-down' | 'diamond' | 'ring';
+import type { MarkerShape } from '../../../lib/charts/uplot-markers';
+
+export type { MarkerShape };
 
 export interface SessionStyle {
   colour: string;

@@ -2,8 +2,9 @@
 // marker by role, with the few per-series exceptions the page names (|Ad| squares, |Acm| bounds
 // pointing down). Pure data, so the chart chunk and the tests read the same table.
 import type { SeriesRole } from '../../../lib/charts/session-chart-data';
+import type { MarkerShape } from '../../../lib/charts/uplot-markers';
 
-export type MarkerShape = 'circle' | 'square' | 'triangle-up' | 'triangle-down' | 'diamond' | 'ring';
+export type { MarkerShape };
 
 export interface SeriesStyle {
   colour: string;

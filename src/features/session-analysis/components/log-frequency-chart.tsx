@@ -4,7 +4,7 @@ import 'uplot/dist/uPlot.min.css';
 import { logFrequencyTicks } from '../../../lib/charts/log-frequency-axis';
 import { chartColours, seriesStyle, type SeriesStyle } from './chart-styles';
 import { readoutAt, type FixedChartData, type FixedSeries, type TraceGroup } from './chart-series';
-import { markerPaths } from './uplot-markers';
+import { markerPaths } from '../../../lib/charts/uplot-markers';
 
 export interface ChartBandFill {
   lowerKey: string;

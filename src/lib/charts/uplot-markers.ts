@@ -1,7 +1,8 @@
 // Marker shapes for uPlot series (docs/CHARTS.md): uPlot draws round points only, so each shape is
 // built here as one Path2D per series and stroked/filled by uPlot with the series' point colours.
 import uPlot from 'uplot';
-import type { MarkerShape } from './chart-styles';
+/** Marker shapes of docs/CHARTS.md. */
+export type MarkerShape = 'circle' | 'square' | 'triangle-up' | 'triangle-down' | 'diamond' | 'ring';
 
 function addShape(path: Path2D, shape: MarkerShape, x: number, y: number, size: number): void {
   const half = size / 2;
