@@ -4,6 +4,7 @@
 import { readFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { analyzeSweeps, type FrequencyFit, type SweepAnalysis } from '../../shared/engine/frequency-fit';
+import { formatTable } from '../table';
 
 const usage = 'usage: rejectra analyze --differential FILE --common-mode FILE [--average-repeats] [--json]\n';
 
@@ -23,14 +24,6 @@ function formatInterval(interval: [number, number] | null, significant = 4): str
   return interval ? `[${formatNumber(interval[0], significant)}, ${formatNumber(interval[1], significant)}]` : '';
 }
 
-function table(rows: string[][], rightAligned: boolean[] = []): string {
-  const widths = rows[0].map((_, column) => Math.max(...rows.map((row) => row[column].length)));
-  return rows
-    .map((row) =>
-      row.map((cell, column) => (rightAligned[column] ? cell.padStart(widths[column]) : cell.padEnd(widths[column]))).join('  ').trimEnd(),
-    )
-    .join('\n');
-}
 
 function fitJson(fit: FrequencyFit) {
   return {
@@ -110,7 +103,7 @@ function readable(analysis: SweepAnalysis, differentialFile: string, commonModeF
     points.some((point) => point.lowerBound) ? '≥ lower bound: common-mode output within 6 dB of its floor (2·floor used)' : '',
     points.some((point) => point.interpolated) ? '* differential gain interpolated on log-frequency' : '',
   ].filter(Boolean);
-  return `${table(pointRows, [true, true, true, true, true, true])}\n${notes.length ? `${notes.join('\n')}\n` : ''}\n${table(summaryRows)}\n`;
+  return `${formatTable(pointRows, () => true)}\n${notes.length ? `${notes.join('\n')}\n` : ''}\n${formatTable(summaryRows)}\n`;
 }
 
 export async function run(args: string[]): Promise<number> {

@@ -6,6 +6,7 @@ import { parseArgs } from 'node:util';
 import { parseCaptureFile } from '../../shared/engine/capture-file';
 import { fitCapture, type ChannelFit } from '../../shared/engine/capture-fit';
 import { EngineInputError } from '../../shared/engine/errors';
+import { formatTable } from '../table';
 
 const usage = 'usage: rejectra capture FILE [--frequency HZ] [--json]\n';
 
@@ -33,10 +34,6 @@ function formatNumber(value: number, significant = 6): string {
   return magnitude >= 1e-3 && magnitude < 1e7 ? Number(value.toPrecision(significant)).toString() : value.toExponential(significant - 1);
 }
 
-function table(rows: string[][]): string {
-  const widths = rows[0].map((_, column) => Math.max(...rows.map((row) => row[column].length)));
-  return rows.map((row) => row.map((cell, column) => cell.padEnd(widths[column])).join('  ').trimEnd()).join('\n');
-}
 
 export async function run(args: string[]): Promise<number> {
   let parsed;
@@ -104,14 +101,14 @@ export async function run(args: string[]): Promise<number> {
     return 0;
   }
   const unit = capture.unit === 'V' ? 'V' : 'FS';
-  const summary = table([
+  const summary = formatTable([
     ['file', `${file} (${capture.format}, ${capture.encoding}; amplitudes peak, in ${capture.unit === 'V' ? 'volts' : 'full-scale units'})`],
     ['frequency', `${formatNumber(fit.frequencyHz, 9)} Hz (${fit.frequencySource})`],
     ['record', `${fit.samples} samples at ${formatNumber(fit.sampleRateHz, 9)} Hz, ${formatNumber(fit.cycles, 6)} cycles`],
     ['gain', `${formatNumber(fit.gain)} (${formatNumber(fit.gainDb, 5)} dB)`],
     ['phase', `${formatNumber(fit.phaseDeg, 5)}° (output − input)`],
   ]);
-  const channels = table([
+  const channels = formatTable([
     ['channel', `amplitude (${unit})`, 'phase (°)', `offset (${unit})`, `residual RMS (${unit})`],
     ...(['input', 'output'] as const).map((name) => [
       name,

@@ -11,6 +11,7 @@ import {
   type OpAmpModel,
 } from '../../shared/engine/difference-amplifier';
 import { EngineInputError } from '../../shared/engine/errors';
+import { formatTable } from '../table';
 
 const usage = `usage: rejectra predict --r1 OHMS --r2 OHMS --r3 OHMS --r4 OHMS [--rs1 OHMS --rs2 OHMS]
          [--open-loop-gain-db DB --gbw-hz HZ --opamp-cmrr-db DB --opamp-cmrr-corner-hz HZ]
@@ -121,10 +122,6 @@ function formatFrequency(value: number): string {
   return Number(value.toPrecision(6)).toString();
 }
 
-function table(rows: string[][]): string {
-  const widths = rows[0].map((_, column) => Math.max(...rows.map((row) => row[column].length)));
-  return rows.map((row) => row.map((cell, column) => cell.padStart(widths[column])).join('  ')).join('\n');
-}
 
 function pointJson(point: DifferenceAmplifierPrediction) {
   return {
@@ -217,6 +214,6 @@ export async function run(args: string[]): Promise<number> {
       formatDb(point.cmrrOppositeSignDb),
     ]),
   ];
-  process.stdout.write(`${heading}\n\n${table(rows)}\n`);
+  process.stdout.write(`${heading}\n\n${formatTable(rows, () => true)}\n`);
   return 0;
 }

@@ -14,6 +14,9 @@ import {
   worstCaseCmrrDb,
   type ToleranceDistribution,
 } from '../../shared/engine/resistor-tolerance';
+import { formatTable } from '../table';
+
+const numbersAfterTheFirstColumn = (column: number) => column > 0;
 
 const usage = `usage: rejectra tolerance --gain G --tolerance FRACTION [--trials N] [--seed S]
          [--distribution uniform|normal] [--limit-db DB] [--target-db DB]
@@ -53,10 +56,6 @@ function formatPercent(fraction: number): string {
   return `${Number((fraction * 100).toPrecision(4))} %`;
 }
 
-function table(rows: string[][]): string {
-  const widths = rows[0].map((_, column) => Math.max(...rows.map((row) => row[column].length)));
-  return rows.map((row) => row.map((cell, column) => (column === 0 ? cell.padEnd(widths[column]) : cell.padStart(widths[column]))).join('  ')).join('\n');
-}
 
 export async function run(args: string[]): Promise<number> {
   let parsed;
@@ -153,7 +152,7 @@ export async function run(args: string[]): Promise<number> {
   const lines = [
     `difference amplifier, gain ${gain}, every resistor ±${formatPercent(toleranceFraction)}, ideal op-amp`,
     '',
-    table([
+    formatTable([
       ['worst case (16 corners)', formatDb(worstCaseDb)],
       ['approximation (1 + G)/(4ε)', formatDb(approximationDb)],
       [`Monte Carlo 5th percentile`, formatDb(monteCarlo.p05Db)],
@@ -162,7 +161,7 @@ export async function run(args: string[]): Promise<number> {
       ...(monteCarlo.yieldFraction === undefined
         ? []
         : [[`yield at ≥ ${formatDb(limitDb as number)}`, formatPercent(monteCarlo.yieldFraction)]]),
-    ]),
+    ], numbersAfterTheFirstColumn),
     `(Monte Carlo: ${trials} trials, seed ${seed}, ${spread})`,
   ];
   if (inverse) {
@@ -176,7 +175,7 @@ export async function run(args: string[]): Promise<number> {
     lines.push(
       '',
       `nearest ${series} pairs (R1 = R3, R2 = R4), CMRR at ±${formatPercent(toleranceFraction)}:`,
-      table([
+      formatTable([
         ['R1 (Ω)', 'R2 (Ω)', 'gain', 'gain error', 'worst case', 'approximation'],
         ...pairs.map((pair) => [
           String(pair.r1Ohms),
@@ -186,7 +185,7 @@ export async function run(args: string[]): Promise<number> {
           formatDb(pair.worstCaseCmrrDb as number),
           formatDb(pair.approximationCmrrDb as number),
         ]),
-      ]),
+      ], numbersAfterTheFirstColumn),
     );
   }
   process.stdout.write(`${lines.join('\n')}\n`);
