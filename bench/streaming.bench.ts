@@ -7,15 +7,13 @@
 //       to its socket, the viewer (signed in with a browser session, subscribed to the session, in
 //       this same process so one clock serves both) stamps each point on arrival.
 // Run: node --import tsx bench/streaming.bench.ts
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
 import { loadavg } from 'node:os';
-import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import pg from 'pg';
 import WebSocket from 'ws';
 import { streamSweep, type ReadingToStream } from '../cli/stream/stream-client';
-import { ensureDatabase, freePort, startCluster, type Cluster } from '../scripts/lib/postgres-cluster';
+import { ensureDatabase } from '../scripts/lib/postgres-cluster';
+import { createScratchServer } from './lib/scratch-server';
 import { simulateAmplifierSweep } from '../shared/engine/simulated-amplifier';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
@@ -55,40 +53,7 @@ function readings(count: number, seed: number): ReadingToStream[] {
 
 // ---- the cluster and the server --------------------------------------------------------------
 
-const workDir = mkdtempSync('/tmp/rejectra-bench-');
-chmodSync(workDir, 0o755);
-let cluster: Cluster | null = null;
-let server: ChildProcess | null = null;
-
-function cleanUp(): void {
-  server?.kill('SIGKILL');
-  server = null;
-  cluster?.stop();
-  cluster = null;
-  rmSync(workDir, { recursive: true, force: true });
-}
-process.once('SIGINT', () => {
-  cleanUp();
-  process.exit(130);
-});
-
-async function startApiServer(databaseUrl: string, port: number): Promise<string> {
-  const env = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', SMTP_URL: `smtp://127.0.0.1:${await freePort()}`, NODE_ENV: 'production' };
-  const seeded = spawnSync(process.execPath, ['--import', 'tsx', 'server/seed-main.ts'], { cwd: root, env, encoding: 'utf8' });
-  if (seeded.status !== 0) throw new Error(`seeding failed: ${seeded.stderr}`);
-  server = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], { cwd: root, env, stdio: ['ignore', 'ignore', 'inherit'] });
-  const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 30_000;
-  for (;;) {
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return url;
-    } catch {
-      // not up yet
-    }
-    if (Date.now() > deadline) throw new Error('the server did not start within 30 s');
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-}
+const scratch = createScratchServer(root);
 
 /** Signs in and returns a fetch that carries the session cookie and the Origin header. */
 async function signIn(url: string, email: string): Promise<{ cookie: string; call: (method: string, route: string, body?: unknown) => Promise<Record<string, unknown>> }> {
@@ -236,11 +201,10 @@ async function latency(target: StreamTarget, cookie: string, run: (typeof LATENC
 // ---- run -------------------------------------------------------------------------------------
 
 try {
-  const pgPort = await freePort();
-  cluster = await startCluster(path.join(workDir, 'pg'), pgPort);
+  const cluster = await scratch.startCluster();
   await ensureDatabase(cluster.url('postgres'), 'bench');
   const databaseUrl = cluster.url('bench');
-  const url = await startApiServer(databaseUrl, await freePort());
+  const url = await scratch.startServer(databaseUrl);
 
   const designer = await signIn(url, 'designer@rejectra.test');
   const design = (await designer.call('POST', '/api/designs', {
@@ -368,5 +332,5 @@ try {
     ].join('\n') + '\n',
   );
 } finally {
-  cleanUp();
+  scratch.cleanUp();
 }

@@ -9,14 +9,14 @@
 // computation in Node (the shared analysis called directly) and a vectorised numpy version of the
 // difference amplifier's run.
 // Run: node --import tsx bench/tolerance-explorer.bench.ts [--client-dir dist/client] [--runs 15]
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { chmodSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { existsSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import type { Page } from 'playwright-core';
-import { freePort, startCluster, type Cluster } from '../scripts/lib/postgres-cluster';
+import { createScratchServer } from './lib/scratch-server';
 import { monteCarloAtFrequency } from '../shared/analysis/prediction-band';
 import type { Circuit } from '../shared/schemas/designs';
 import { launchBrowser } from '../tests/helpers/browser';
@@ -30,45 +30,12 @@ const RESPONSIVE_FRAME_GAP_MS = 50;
 // Tolerances typed in turn (percent): every run is a new circuit, so nothing is served from a cache.
 const TOLERANCES = ['0.1', '0.05', '0.02', '0.01', '0.2', '0.03', '0.07', '0.015', '0.005', '0.12', '0.04', '0.025', '0.008', '0.06', '0.09', '0.011', '0.013', '0.017', '0.019', '0.021'];
 
-const workDir = mkdtempSync('/tmp/rejectra-bench-');
-chmodSync(workDir, 0o755);
-let cluster: Cluster | null = null;
-let server: ChildProcess | null = null;
-function cleanUp(): void {
-  server?.kill('SIGKILL');
-  server = null;
-  cluster?.stop();
-  cluster = null;
-  rmSync(workDir, { recursive: true, force: true });
-}
-process.once('SIGINT', () => {
-  cleanUp();
-  process.exit(130);
-});
+const scratch = createScratchServer(root);
 
 function median(values: number[]): number {
   const sorted = [...values].sort((a, b) => a - b);
   const middle = sorted.length >> 1;
   return sorted.length % 2 ? sorted[middle] : (sorted[middle - 1] + sorted[middle]) / 2;
-}
-
-async function startApp(databaseUrl: string, clientDir: string): Promise<string> {
-  const port = await freePort();
-  const env = { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'warn', SMTP_URL: `smtp://127.0.0.1:${await freePort()}`, NODE_ENV: 'production', CLIENT_DIR: clientDir, AUTH_RATE_LIMIT: '100000' };
-  const seeded = spawnSync(process.execPath, ['--import', 'tsx', 'server/seed-main.ts'], { cwd: root, env, encoding: 'utf8' });
-  if (seeded.status !== 0) throw new Error(`seeding failed: ${seeded.stderr}`);
-  server = spawn(process.execPath, ['--import', 'tsx', 'server/main.ts'], { cwd: root, env, stdio: ['ignore', 'ignore', 'inherit'] });
-  const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 30_000;
-  for (;;) {
-    try {
-      if ((await fetch(`${url}/api/health`)).ok) return url;
-    } catch {
-      // not up yet
-    }
-    if (Date.now() > deadline) throw new Error('the server did not start within 30 s');
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
 }
 
 /** The longest gap between animation frames over `milliseconds` with nothing running: what the machine alone does to frames. */
@@ -220,15 +187,15 @@ print(np.median(times))
 }
 
 try {
-  let clientDir = options['client-dir'] ? path.resolve(options['client-dir']) : path.join(workDir, 'client');
+  let clientDir = options['client-dir'] ? path.resolve(options['client-dir']) : path.join(scratch.workDir, 'client');
   if (!options['client-dir']) {
     const built = spawnSync(path.join(root, 'node_modules', '.bin', 'vite'), ['build', '--outDir', clientDir, '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
     if (built.status !== 0) throw new Error(`client build failed: ${built.stderr}`);
   }
   if (!existsSync(path.join(clientDir, 'index.html'))) throw new Error(`no built client in ${clientDir}`);
   clientDir = path.resolve(clientDir);
-  cluster = await startCluster(path.join(workDir, 'pg'), await freePort());
-  const url = await startApp(cluster.url('postgres'), clientDir);
+  const cluster = await scratch.startCluster();
+  const url = await scratch.startServer(cluster.url('postgres'), { env: { CLIENT_DIR: clientDir, AUTH_RATE_LIMIT: '100000' } });
   const browser = await launchBrowser();
   try {
     const page = await (await browser.newContext({ viewport: { width: 1440, height: 900 } })).newPage();
@@ -262,5 +229,5 @@ try {
     await browser.close();
   }
 } finally {
-  cleanUp();
+  scratch.cleanUp();
 }
