@@ -141,6 +141,47 @@ describe('session analysis in the browser', () => {
     await context.close();
   });
 
+  it('lays the charts out while the analysis is computed and fills them when it arrives, asking for no more points than the screen shows', { timeout: 120_000 }, async () => {
+    const listed = (await designer.get('/api/sessions').query({ search: 'HRB204-0003' }).expect(200)).body.items as { id: string; unitSerial: string }[];
+    const demo = listed.find((candidate) => candidate.unitSerial === 'HRB204-0003')!;
+    const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
+    const page = await context.newPage();
+    await signIn(page, 'designer@rejectra.test');
+    // Hold the analysis back, as a long session's would be while the server fits it.
+    let release!: () => void;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    const asked: string[] = [];
+    await page.route(/\/api\/sessions\/[^/]+\/analysis(\?|$)/, async (route) => {
+      asked.push(route.request().url());
+      await held;
+      await route.continue();
+    });
+    await page.goto(`${app.url}/sessions/${demo.id}`);
+    await expect.poll(() => page.getByTestId('analysis-pending').count(), patient).toBe(1);
+    await expect.poll(() => page.locator('.u-over').count(), patient).toBe(2);
+    expect(await page.getByRole('status').filter({ hasText: 'Analysing the sweeps…' }).count()).toBe(2);
+    expect(await page.getByText('The verdict follows the analysis.').count()).toBe(1);
+    expect(await page.evaluate(() => performance.getEntriesByName('session-charts').length)).toBe(0);
+    // 1440 px wide: 1440 − 264 (navigation) − 64 (margins) − 384 − 24 (side column) = 704 px of plot, four points per pixel column.
+    expect(asked.map((address) => new URL(address).searchParams.get('maxPoints'))).toEqual(['2816']);
+    // The budget assumed a plot at least as wide as the one laid out: one column of thinning per pixel or finer.
+    const plotWidths = await page.locator('.u-over').evaluateAll((plots) => plots.map((plot) => plot.getBoundingClientRect().width));
+    for (const width of plotWidths) expect(width).toBeLessThanOrEqual(704);
+    await screenshot(page, shots, '00-charts-laid-out-while-analysing');
+
+    release();
+    await expect.poll(() => page.getByText('Analysis complete').count(), patient).toBe(1);
+    await expect.poll(() => page.getByTestId('verdict-sentence').count(), patient).toBe(1);
+    await expect.poll(() => page.getByRole('status').filter({ hasText: 'Analysing the sweeps…' }).count(), patient).toBe(0);
+    expect(await page.locator('.u-over').count()).toBeGreaterThanOrEqual(2);
+    expect(await page.evaluate(() => performance.getEntriesByName('session-charts').length)).toBe(1);
+    expect(await page.getByRole('checkbox', { name: 'Measured values' }).count()).toBe(1);
+    // HRB204-0003 is archived in the demo: it takes no more points, so no "Live" marker.
+    expect(await page.getByText(/^Archived by /).count()).toBe(1);
+    expect(await page.locator('[data-live-status]').count()).toBe(0);
+    await context.close();
+  });
+
   it('compares two demo sessions overlaid, with the difference at a typed and then a clicked frequency', { timeout: 120_000 }, async () => {
     const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
     const page = await context.newPage();

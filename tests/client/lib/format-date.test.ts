@@ -19,3 +19,19 @@ describe('formatDateTime', () => {
     expect(formatDateTime('not a date', 'UTC')).toBe('not a date');
   });
 });
+
+describe('formatDateTime with its kept formatters', () => {
+  it('keeps each time zone apart when zones alternate', () => {
+    // Same instant, two zones, asked in turn: a formatter kept for one zone must not serve the other.
+    const instant = '2026-07-01T12:00:00.000Z';
+    expect(formatDateTime(instant, 'UTC')).toBe('2026-07-01 12:00');
+    expect(formatDateTime(instant, 'Asia/Tokyo')).toBe('2026-07-01 21:00');
+    expect(formatDateTime(instant, 'UTC')).toBe('2026-07-01 12:00');
+    expect(formatDateTime(instant, 'America/New_York')).toBe('2026-07-01 08:00');
+  });
+
+  it('refuses a time zone Intl does not know, every time it is asked', () => {
+    expect(() => formatDateTime('2026-07-01T12:00:00.000Z', 'Mars/Olympus')).toThrow(RangeError);
+    expect(() => formatDateTime('2026-07-01T12:00:00.000Z', 'Mars/Olympus')).toThrow(RangeError);
+  });
+});

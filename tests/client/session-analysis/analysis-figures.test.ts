@@ -95,6 +95,17 @@ describe('fitParameterRows', () => {
     expect(rows[1].value).toMatch(/ (Hz|kHz)$/);
     expect(rows[3].value).toMatch(/dB\/decade$/);
   });
+
+  it('writes the counts of a long sweep with thousands separators', () => {
+    const prediction = predictDifferenceAmplifier(logSpacedFrequencies(10, 1e5, 25), { r1Ohms: 10e3, r2Ohms: 100e3, r3Ohms: 10e3, r4Ohms: 100.05e3 }, {
+      openLoopGainDb: 120,
+      gainBandwidthHz: 1e7,
+      cmrrDb: 110,
+      cmrrCornerHz: 2000,
+    });
+    const fit = { ...fitCmrrFrequencyResponse(pointsFromPrediction(prediction)), activePointCount: 100_000, activeBoundCount: 1_250, degreesOfFreedom: 99_998 };
+    expect(fitParameterRows(fit)[4].detail).toBe('100,000 points in the fit, 1,250 of them bounds; 99,998 degrees of freedom');
+  });
 });
 
 describe('thinSessionPoints and thinPrediction', () => {

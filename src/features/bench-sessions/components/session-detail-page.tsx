@@ -40,8 +40,9 @@ function describeDrive(drive: Drive) {
 /** What the page hands the analysis view (supplied by the app, so this feature does not import another). */
 export interface AnalysisViewProps {
   session: BenchSessionDetail;
-  analysis: SessionAnalysis;
-  /** When this analysis reached the page, ms since the epoch. */
+  /** Null while the analysis is on its way (the view lays out its charts meanwhile). */
+  analysis: SessionAnalysis | null;
+  /** When this analysis reached the page, ms since the epoch (0 before it has). */
   analysisUpdatedAt: number;
 }
 
@@ -107,6 +108,10 @@ function SessionBody({
   const canAdd = !archived && canRecordSessions(user.role);
   const visibleSweeps = sweeps.data?.sweeps ?? [];
   const selectedSweep = visibleSweeps.find((sweep) => sweep.id === view.sweep && !sweep.deletedAt) ?? null;
+  // With a sweep of each kind there will be charts: the view lays them out while the analysis
+  // (seconds for a long session) is computed, so its arrival only has to fill them.
+  const chartsExpected = detail.sweepCounts.differential > 0 && detail.sweepCounts.commonMode > 0;
+  const showView = analysis.isSuccess || (analysis.isPending && chartsExpected);
 
   return (
     <>
@@ -120,7 +125,8 @@ function SessionBody({
         }
         actions={
           <>
-            {live}
+            {/* An archived session takes no more points, so there is nothing live to show. */}
+            {!archived && live}
             {archived ? <Badge tone="quiet" symbol="■">Archived</Badge> : <Badge tone="good" symbol="●">Open</Badge>}
             {user.role === 'lead' && !archived && (
               <Button variant="secondary" onClick={() => setConfirmArchive(true)}>
@@ -190,11 +196,11 @@ function SessionBody({
 
         <Card title="Analysis">
           <div className="px-5 py-4" aria-busy={analysis.isFetching || undefined}>
-            {analysis.isPending && <LoadingState label="Analysing the sweeps…" />}
+            {analysis.isPending && !chartsExpected && <LoadingState label="Analysing the sweeps…" />}
             {analysis.isError && <ErrorState title="The analysis could not be loaded" message={errorMessage(analysis.error)} onRetry={() => analysis.refetch()} />}
-            {analysis.isSuccess && (
-              <Suspense fallback={<LoadingState label="Loading the analysis view…" />}>
-                <AnalysisView session={detail} analysis={analysis.data.analysis} analysisUpdatedAt={analysis.dataUpdatedAt} />
+            {showView && (
+              <Suspense fallback={<LoadingState label="Analysing the sweeps…" />}>
+                <AnalysisView session={detail} analysis={analysis.data?.analysis ?? null} analysisUpdatedAt={analysis.data ? analysis.dataUpdatedAt : 0} />
               </Suspense>
             )}
           </div>

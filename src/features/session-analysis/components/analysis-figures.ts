@@ -19,6 +19,9 @@ export interface FitParameterRow {
 const interval = (values: [number, number] | null, format: (value: number) => string) =>
   values ? `95 %: ${format(values[0])} … ${format(values[1])}` : null;
 
+/** Whole counts with thousands separators: "99,998". */
+const count = (value: number) => value.toLocaleString('en');
+
 const slopeText = (dbPerDecade: number) => `${dbPerDecade < 0 ? '−' : '+'}${Math.abs(dbPerDecade).toFixed(1)} dB/decade`;
 
 /**
@@ -55,7 +58,7 @@ export function fitParameterRows(fit: FrequencyFit): FitParameterRow[] {
       key: 'residual',
       label: 'Residual rms',
       value: formatDb(fit.residualRmsDb, { digits: 2 }),
-      detail: `${fit.activePointCount} points in the fit${fit.activeBoundCount > 0 ? `, ${fit.activeBoundCount} of them bounds` : ''}; ${fit.degreesOfFreedom} degrees of freedom`,
+      detail: `${count(fit.activePointCount)} points in the fit${fit.activeBoundCount > 0 ? `, ${count(fit.activeBoundCount)} of them bounds` : ''}; ${count(fit.degreesOfFreedom)} degrees of freedom`,
     },
   ];
 }

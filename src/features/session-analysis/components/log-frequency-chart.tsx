@@ -28,6 +28,8 @@ export interface LogFrequencyChartProps {
   syncKey: string;
   styleFor?: (entry: FixedSeries) => SeriesStyle;
   onDrawn?: (version: number) => void;
+  /** Shown over the plot while it waits for its first data (the frame is laid out meanwhile). */
+  placeholder?: string;
 }
 
 const axisFont = '12px "JetBrains Mono", monospace';
@@ -110,7 +112,8 @@ export function LogFrequencyChart(props: LogFrequencyChartProps) {
       legend: { show: false },
       scales: {
         x: { time: false, distr: 3, log: 10 },
-        y: { auto: true, range: (_u, min, max) => latest.current.yRangeDb ?? [Math.floor(min - 3), Math.ceil(max + 3)] },
+        // An empty chart (before its first data) gets a plain 0–100 dB frame rather than ±3 dB around nothing.
+        y: { auto: true, range: (_u, min, max) => latest.current.yRangeDb ?? (min === null || max === null ? [0, 100] : [Math.floor(min - 3), Math.ceil(max + 3)]) },
       },
       axes: [
         frequencyAxis(),
@@ -176,7 +179,14 @@ export function LogFrequencyChart(props: LogFrequencyChartProps) {
   return (
     <figure className="space-y-1" aria-label={props.title}>
       <figcaption className="text-[0.9375rem] font-semibold text-ink-800">{props.title}</figcaption>
-      <div ref={container} className="w-full" role="img" aria-label={props.description} />
+      <div className="relative">
+        <div ref={container} className="w-full" role="img" aria-label={props.description} style={{ minHeight: props.height }} />
+        {props.placeholder && (
+          <div className="absolute inset-0 flex items-center justify-center rounded-md bg-white/85 text-ink-700" role="status">
+            {props.placeholder}
+          </div>
+        )}
+      </div>
       <div className="min-h-[3.25rem] rounded-md bg-ink-50 px-3 py-1.5 text-[0.875rem] text-ink-800" data-testid="chart-readout">
         {readout ? (
           <>
@@ -187,7 +197,7 @@ export function LogFrequencyChart(props: LogFrequencyChartProps) {
               </span>
             ))}
           </>
-        ) : (
+        ) : props.placeholder ? null : (
           <span className="text-ink-600">Point at the chart to read every trace at one frequency; drag across to zoom, double-click to show all.</span>
         )}
       </div>

@@ -1,8 +1,12 @@
 // The session view (issue 5): CMRR and gain charts against the design, the fit with its
 // uncertainty, the verdict, the diagnosis against the design, and the session's exports. Updates in
-// place while a sweep streams in: new analyses reach the charts through setData.
+// place while a sweep streams in: new analyses reach the charts through setData. While the first
+// analysis is on its way (seconds for a long session) the charts are already laid out, empty, so
+// its arrival only fills them.
 import { lazy, Suspense, useCallback, useDeferredValue, useMemo, useRef, useState, type ReactNode } from 'react';
 import { summariseSession, type SessionSummary } from '../../../../shared/analysis/session-summary';
+import type { CmrrPoint } from '../../../../shared/engine/cmrr-points';
+import type { PredictedPoint } from '../../../../shared/design-prediction';
 import type { SessionAnalysis } from '../../../../shared/schemas/analysis';
 import type { BenchSessionDetail } from '../../../../shared/schemas/bench-sessions';
 import { Badge, type BadgeTone } from '../../../components/badge';
@@ -10,6 +14,7 @@ import { LoadingState } from '../../../components/states';
 import { errorMessage } from '../../../lib/api-client';
 import { formatDb, formatFrequencyHz } from '../../../lib/charts/log-frequency-axis';
 import { prepareSessionCharts } from '../../../lib/charts/session-chart-data';
+import { sessionChartWidthPx } from '../../../lib/charts/session-chart-width';
 import { formatDateTime } from '../../../lib/format-date';
 import { useDesignRevision } from '../api/get-design-revision';
 import { SESSION_BAND_TRIALS, useMonteCarloBand } from '../hooks/use-monte-carlo-band';
@@ -25,7 +30,8 @@ const LazyResidualChart = lazy(() => chartsLoading.then((module) => ({ default: 
 
 export interface SessionAnalysisViewProps {
   session: BenchSessionDetail;
-  analysis: SessionAnalysis;
+  /** Null while the analysis is on its way: the charts are laid out empty meanwhile. */
+  analysis: SessionAnalysis | null;
   /** When this analysis reached the page (ms since the epoch, TanStack Query's dataUpdatedAt). */
   analysisUpdatedAt: number;
 }
@@ -35,6 +41,8 @@ const statusAppearance: Record<SessionAnalysis['status'], { tone: BadgeTone; sym
   incomplete: { tone: 'warn', symbol: '◌', label: 'Analysis incomplete' },
   error: { tone: 'fault', symbol: '▲', label: 'Analysis refused the data' },
 };
+
+const pendingAppearance = { tone: 'quiet' as BadgeTone, symbol: '◌', label: 'Analysing the sweeps…' };
 
 const outcomeAppearance: Record<SessionSummary['outcome'], { tone: BadgeTone; symbol: string; label: string }> = {
   pass: { tone: 'good', symbol: '✓', label: 'Pass' },
@@ -55,13 +63,6 @@ function OutcomeBadge({ outcome }: { outcome: string }) {
 }
 
 const capitalise = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
-
-/** The charts' plot width for a viewport width: the layout's columns taken off, rounded up generously. */
-function chartWidthEstimatePx(viewportPx: number): number {
-  const content = Math.min(viewportPx, 1408 + 264) - (viewportPx >= 1024 ? 264 : 0) - 64;
-  const charts = viewportPx >= 1280 ? content - 384 - 24 : content;
-  return Math.max(480, Math.min(1600, Math.round(charts)));
-}
 
 /** Where the session's charts measure their speed (bench/session-chart.bench.ts reads these). */
 function markChartsDrawn(analysisUpdatedAt: number): void {
@@ -87,33 +88,40 @@ function incompleteText(analysis: SessionAnalysis): string {
   return analysis.message ?? 'The sweeps do not overlap in frequency yet, so no CMRR point can be formed.';
 }
 
+const noPoints: readonly CmrrPoint[] = [];
+const noPrediction: readonly PredictedPoint[] = [];
+
 export default function SessionAnalysisView({ session, analysis, analysisUpdatedAt }: SessionAnalysisViewProps) {
   const design = useDesignRevision(session.design.id, session.designRevision.id);
   const revision = design.data?.revision ?? null;
   const circuit = revision?.circuit ?? null;
+  const points = analysis?.points ?? noPoints;
+  const analysisFit = analysis?.fit ?? null;
+  const analysisPrediction = analysis?.prediction ?? noPrediction;
   const rangeHz = useMemo((): [number, number] | null => {
     let low = Infinity;
     let high = -Infinity;
-    for (const point of analysis.points) {
-      if (point.frequencyHz < low) low = point.frequencyHz;
-      if (point.frequencyHz > high) high = point.frequencyHz;
+    for (let index = 0; index < points.length; index++) {
+      const frequencyHz = points[index].frequencyHz;
+      if (frequencyHz < low) low = frequencyHz;
+      if (frequencyHz > high) high = frequencyHz;
     }
     return low > 0 && high >= low ? [low, high] : null;
-  }, [analysis.points]);
+  }, [points]);
   const band = useMonteCarloBand(session.designRevision.id, circuit, rangeHz);
   // Decimate to about the charts' width on this screen (beside the 24 rem column from 1280 px, the
   // navigation column from 1024 px): a few kept points per pixel column, never fewer than pixels.
-  const [widthPx] = useState(() => chartWidthEstimatePx(window.innerWidth));
+  const [widthPx] = useState(() => sessionChartWidthPx(window.innerWidth));
   const [hidden, setHidden] = useState<ReadonlySet<TraceGroup>>(() => new Set());
   const limitMask = revision?.limitMask ?? null;
   // Long sessions are thinned once per analysis; the limit and the Monte Carlo band, which arrive
   // later, then only re-prepare the thinned points.
-  const thinned = useMemo(() => thinSessionPoints(analysis.points, analysis.fit, widthPx), [analysis.points, analysis.fit, widthPx]);
-  const prediction = useMemo(() => thinPrediction(analysis.prediction, widthPx, { points: analysis.points, keptIndices: thinned.keptIndices }), [analysis.prediction, analysis.points, thinned, widthPx]);
+  const thinned = useMemo(() => thinSessionPoints(points, analysisFit, widthPx), [points, analysisFit, widthPx]);
+  const prediction = useMemo(() => thinPrediction(analysisPrediction, widthPx, { points, keptIndices: thinned.keptIndices }), [analysisPrediction, points, thinned, widthPx]);
   const prepared = useMemo(() => {
     const charts = prepareSessionCharts({ points: thinned.points, fit: thinned.fit, prediction, monteCarloBand: band.data, limitMask }, { widthPx });
-    return { ...charts, totalPointCount: analysis.points.length };
-  }, [thinned, prediction, band.data, limitMask, widthPx, analysis.points.length]);
+    return { ...charts, totalPointCount: analysis?.thinnedFrom ?? points.length };
+  }, [thinned, prediction, band.data, limitMask, widthPx, analysis?.thinnedFrom, points.length]);
   const cmrr = useMemo(() => alignToFixedSeries(prepared.cmrr, cmrrSeries), [prepared]);
   const gains = useMemo(() => alignToFixedSeries(prepared.gains, gainSeries), [prepared]);
   // The verdict, diagnosis and residuals follow the charts in a render of their own (the
@@ -137,7 +145,8 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
   const onDrawn = useCallback((chart: 'cmrr' | 'gains', version: number) => {
     const state = drawn.current;
     state[chart] = version;
-    if (state.cmrr === version && state.gains === version && state.marked !== version) {
+    // Version 0 is the empty frame laid out before the first analysis: nothing arrived yet.
+    if (version > 0 && state.cmrr === version && state.gains === version && state.marked !== version) {
       state.marked = version;
       markChartsDrawn(version);
     }
@@ -151,8 +160,8 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
     });
   }, []);
 
-  const status = statusAppearance[analysis.status];
-  const fit = analysis.fit;
+  const status = analysis ? statusAppearance[analysis.status] : pendingAppearance;
+  const fit = analysisFit;
   const margin = summary ? marginStatement(summary.value.tightest, summary.value.predictedAtTightestDb) : null;
   const diagnosis = summary?.value.diagnosis ?? null;
   return (
@@ -162,10 +171,18 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
           <Badge tone={status.tone} symbol={status.symbol}>
             {status.label}
           </Badge>
-          <span className="text-[0.9375rem] text-ink-600">
-            <span className="tabular">{analysis.pointCounts.differential}</span> differential and <span className="tabular">{analysis.pointCounts.commonMode}</span>{' '}
-            common-mode points · computed <span className="tabular">{formatDateTime(analysis.computedAt)}</span>
-          </span>
+          {analysis ? (
+            <span className="text-[0.9375rem] text-ink-600">
+              <span className="tabular">{analysis.pointCounts.differential.toLocaleString('en')}</span> differential and{' '}
+              <span className="tabular">{analysis.pointCounts.commonMode.toLocaleString('en')}</span>{' '}
+              common-mode points · computed <span className="tabular">{formatDateTime(analysis.computedAt)}</span>
+            </span>
+          ) : (
+            <span className="text-[0.9375rem] text-ink-600" data-testid="analysis-pending">
+              Fitting the sweeps (<span className="tabular">{session.sweepCounts.differential}</span> differential, <span className="tabular">{session.sweepCounts.commonMode}</span>{' '}
+              common-mode); a long session takes a few seconds.
+            </span>
+          )}
         </div>
         <ExportLinks sessionId={session.id} />
       </div>
@@ -179,18 +196,18 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
             </p>
           </>
         ) : (
-          <p className="text-ink-700">Reading the verdict…</p>
+          <p className="text-ink-700">{analysis ? 'Reading the verdict…' : 'The verdict follows the analysis.'}</p>
         )}
       </div>
 
-      {analysis.points.length === 0 ? (
+      {analysis && analysis.points.length === 0 ? (
         <p className="rounded-md border border-dashed border-ink-300 px-4 py-6 text-ink-800" data-testid="analysis-incomplete">
           {incompleteText(analysis)}
         </p>
       ) : (
         <div className="grid gap-6 xl:grid-cols-[minmax(0,1fr)_24rem]">
           <div className="min-w-0 space-y-2">
-            {analysis.status !== 'complete' && analysis.message && <p className="text-ink-800">{analysis.message}</p>}
+            {analysis && analysis.status !== 'complete' && analysis.message && <p className="text-ink-800">{analysis.message}</p>}
             <Suspense fallback={<LoadingState label="Loading the charts…" />}>
               <SessionChartsNow
                 cmrr={cmrr}
@@ -201,104 +218,116 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
                 onToggle={onToggle}
                 onDrawn={onDrawn}
                 syncKey={`session-${session.id}`}
+                pending={analysis === null}
               />
             </Suspense>
             <BandNote
-              state={circuit === null ? (design.isError ? 'no-design' : 'waiting') : band.isError ? 'error' : band.isPending ? 'computing' : 'ready'}
+              state={
+                circuit === null ? (design.isError ? 'no-design' : 'waiting') : analysis === null ? 'after-analysis' : band.isError ? 'error' : band.isPending ? 'computing' : 'ready'
+              }
               message={band.isError ? errorMessage(band.error) : design.isError ? errorMessage(design.error) : null}
             />
           </div>
 
           <aside className="min-w-0 space-y-4" aria-label="Fit, margin and diagnosis">
-            {margin && (
-              <Panel title="Margin at the tightest frequency">
-                <p className="text-ink-900" data-testid="tightest-margin">
-                  {margin}
-                </p>
+            {analysis === null && (
+              <Panel title="Fit">
+                <p className="text-ink-700">The fit, the margin to the limit and the diagnosis against the design follow the analysis.</p>
               </Panel>
             )}
-            <Panel title="Fit">
-              {fit ? (
-                <>
-                  <dl className="divide-y divide-ink-100">
-                    {fitParameterRows(fit).map((row) => (
-                      <div key={row.key} className="grid grid-cols-[9.5rem_1fr] gap-2 py-1.5">
-                        <dt className="text-[0.9375rem] text-ink-600">{row.label}</dt>
-                        <dd>
-                          <span className="tabular font-medium text-ink-900" data-testid={row.key === 'dc-cmrr' ? 'dc-cmrr' : undefined}>
-                            {row.value}
-                          </span>
-                          {row.detail && <span className="block text-[0.875rem] text-ink-600">{row.detail}</span>}
-                        </dd>
-                      </div>
-                    ))}
-                  </dl>
-                  <p className="mt-2 text-[0.875rem] text-ink-600">
-                    {fit.model === 'first-order' ? 'First-order model' : fit.model === 'smooth' ? `Smooth description (degree ${fit.smoothDegree ?? '?'} in log f)` : 'No model'}: {fit.modelReason}
-                  </p>
-                </>
-              ) : (
-                <p className="text-ink-700">No fit yet: too few resolved points.</p>
-              )}
-            </Panel>
-            {fit && (
-              <Panel title="Where the rejection is limited">
-                <p className="text-ink-900" data-testid="regime-sentence">
-                  {fit.regimeSentence}
-                </p>
-              </Panel>
-            )}
-            <Panel title="Against the design">
-              {diagnosis && diagnosis.sentences.length > 0 ? (
-                <ul className="list-disc space-y-1.5 pl-5 text-ink-900" data-testid="diagnosis">
-                  {diagnosis.sentences.map((sentence) => (
-                    <li key={sentence}>{sentence}</li>
-                  ))}
-                </ul>
-              ) : (
-                <p className="text-ink-700">
-                  {!summary
-                    ? 'Working out the diagnosis…'
-                    : summary.error
-                    ? `The design's circuit could not be used: ${summary.error}`
-                    : !fit
-                      ? 'The diagnosis needs a fit of the measured curve.'
-                      : design.isPending
-                        ? 'Reading the design revision…'
-                        : 'No diagnosis: the design revision could not be read.'}
-                </p>
-              )}
-            </Panel>
-            {residuals && (
-              <Panel title="Residuals">
-                <Suspense fallback={<LoadingState label="Loading the residual plot…" />}>
-                  <ResidualChartNow residuals={residuals} version={analysisUpdatedAt} syncKey={`session-${session.id}`} />
-                </Suspense>
-                <p className="mt-1 text-[0.875rem] text-ink-600">
-                  rms <span className="tabular">{formatDb(fit?.residualRmsDb, { digits: 2 })}</span>
-                  {residuals.largest && (
+            {analysis !== null && (
+              <>
+                {margin && (
+                  <Panel title="Margin at the tightest frequency">
+                    <p className="text-ink-900" data-testid="tightest-margin">
+                      {margin}
+                    </p>
+                  </Panel>
+                )}
+                <Panel title="Fit">
+                  {fit ? (
                     <>
-                      ; largest <span className="tabular">{formatDb(residuals.largest.residualDb, { digits: 2, signed: true })}</span> at{' '}
-                      <span className="tabular">{formatFrequencyHz(residuals.largest.frequencyHz)}</span>
+                      <dl className="divide-y divide-ink-100">
+                        {fitParameterRows(fit).map((row) => (
+                          <div key={row.key} className="grid grid-cols-[9.5rem_1fr] gap-2 py-1.5">
+                            <dt className="text-[0.9375rem] text-ink-600">{row.label}</dt>
+                            <dd>
+                              <span className="tabular font-medium text-ink-900" data-testid={row.key === 'dc-cmrr' ? 'dc-cmrr' : undefined}>
+                                {row.value}
+                              </span>
+                              {row.detail && <span className="block text-[0.875rem] text-ink-600">{row.detail}</span>}
+                            </dd>
+                          </div>
+                        ))}
+                      </dl>
+                      <p className="mt-2 text-[0.875rem] text-ink-600">
+                        {fit.model === 'first-order' ? 'First-order model' : fit.model === 'smooth' ? `Smooth description (degree ${fit.smoothDegree ?? '?'} in log f)` : 'No model'}: {fit.modelReason}
+                      </p>
                     </>
+                  ) : (
+                    <p className="text-ink-700">No fit yet: too few resolved points.</p>
                   )}
-                </p>
-              </Panel>
-            )}
-            {analysis.warnings.length > 0 && (
-              <Panel title="Warnings">
-                <ul className="list-disc space-y-1 pl-5 text-[0.9375rem] text-amber-900">
-                  {analysis.warnings.map((warning) => (
-                    <li key={warning}>{warning}</li>
-                  ))}
-                </ul>
-              </Panel>
+                </Panel>
+                {fit && (
+                  <Panel title="Where the rejection is limited">
+                    <p className="text-ink-900" data-testid="regime-sentence">
+                      {fit.regimeSentence}
+                    </p>
+                  </Panel>
+                )}
+                <Panel title="Against the design">
+                  {diagnosis && diagnosis.sentences.length > 0 ? (
+                    <ul className="list-disc space-y-1.5 pl-5 text-ink-900" data-testid="diagnosis">
+                      {diagnosis.sentences.map((sentence) => (
+                        <li key={sentence}>{sentence}</li>
+                      ))}
+                    </ul>
+                  ) : (
+                    <p className="text-ink-700">
+                      {!summary
+                        ? 'Working out the diagnosis…'
+                        : summary.error
+                        ? `The design's circuit could not be used: ${summary.error}`
+                        : !fit
+                          ? 'The diagnosis needs a fit of the measured curve.'
+                          : design.isPending
+                            ? 'Reading the design revision…'
+                            : 'No diagnosis: the design revision could not be read.'}
+                    </p>
+                  )}
+                </Panel>
+                {residuals && (
+                  <Panel title="Residuals">
+                    <Suspense fallback={<LoadingState label="Loading the residual plot…" />}>
+                      <ResidualChartNow residuals={residuals} version={analysisUpdatedAt} syncKey={`session-${session.id}`} />
+                    </Suspense>
+                    <p className="mt-1 text-[0.875rem] text-ink-600">
+                      rms <span className="tabular">{formatDb(fit?.residualRmsDb, { digits: 2 })}</span>
+                      {residuals.largest && (
+                        <>
+                          ; largest <span className="tabular">{formatDb(residuals.largest.residualDb, { digits: 2, signed: true })}</span> at{' '}
+                          <span className="tabular">{formatFrequencyHz(residuals.largest.frequencyHz)}</span>
+                        </>
+                      )}
+                    </p>
+                  </Panel>
+                )}
+                {analysis.warnings.length > 0 && (
+                  <Panel title="Warnings">
+                    <ul className="list-disc space-y-1 pl-5 text-[0.9375rem] text-amber-900">
+                      {analysis.warnings.map((warning) => (
+                        <li key={warning}>{warning}</li>
+                      ))}
+                    </ul>
+                  </Panel>
+                )}
+              </>
             )}
           </aside>
         </div>
       )}
 
-      {analysis.points.length > 0 && <PointsTable analysis={analysis} />}
+      {analysis && analysis.points.length > 0 && <PointsTable analysis={analysis} />}
     </div>
   );
 }
@@ -313,9 +342,10 @@ function ResidualChartNow(props: Parameters<typeof import('./session-charts').Re
   return <Chart {...props} />;
 }
 
-function BandNote({ state, message }: { state: 'waiting' | 'computing' | 'ready' | 'error' | 'no-design'; message: string | null }) {
+function BandNote({ state, message }: { state: 'waiting' | 'after-analysis' | 'computing' | 'ready' | 'error' | 'no-design'; message: string | null }) {
   const text = {
     waiting: 'Reading the design revision for its prediction bands…',
+    'after-analysis': "The Monte Carlo band of the design's tolerances is computed once the analysis gives the measured frequency range.",
     computing: `Computing the Monte Carlo band (${SESSION_BAND_TRIALS.toLocaleString('en')} trials of the design's tolerances) in the background…`,
     ready: `Monte Carlo band: 5th to 95th percentile of ${SESSION_BAND_TRIALS.toLocaleString('en')} trials of the design's tolerances.`,
     error: `The Monte Carlo band could not be computed: ${message ?? ''}`,

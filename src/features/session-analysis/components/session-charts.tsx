@@ -17,6 +17,8 @@ export interface SessionChartsProps {
   onToggle: (group: TraceGroup, visible: boolean) => void;
   onDrawn: (chart: 'cmrr' | 'gains', version: number) => void;
   syncKey: string;
+  /** The analysis is on its way: the charts stand laid out and empty under a note. */
+  pending?: boolean;
 }
 
 const groupOrder: TraceGroup[] = ['measured', 'bounds', 'failing', 'fit', 'prediction', 'monte-carlo', 'limit'];
@@ -33,10 +35,11 @@ export default function SessionCharts(props: SessionChartsProps) {
   const bands = cmrrBands.map((band) => ({ lowerKey: band.lowerKey, upperKey: band.upperKey, fill: bandFills[band.role] }));
   return (
     <div className="space-y-4">
-      <fieldset className="flex flex-wrap gap-x-4 gap-y-2 rounded-md border border-ink-200 px-3 py-2">
+      <fieldset className="flex min-h-[2.75rem] flex-wrap gap-x-4 gap-y-2 rounded-md border border-ink-200 px-3 py-2">
         <legend className="px-1 text-[0.9375rem] font-medium text-ink-700">Traces</legend>
+        {props.pending && <span className="text-[0.9375rem] text-ink-600">The traces appear with the analysis.</span>}
         {groupOrder
-          .filter((group) => presentGroups.has(group))
+          .filter((group) => !props.pending && presentGroups.has(group))
           .map((group) => (
             <label key={group} className="inline-flex cursor-pointer items-center gap-2 text-[0.9375rem] text-ink-800">
               <input type="checkbox" className="h-4 w-4 accent-trace-600" checked={!props.hidden.has(group)} onChange={(event) => props.onToggle(group, event.target.checked)} />
@@ -64,6 +67,7 @@ export default function SessionCharts(props: SessionChartsProps) {
         bands={bands}
         hidden={props.hidden}
         syncKey={props.syncKey}
+        placeholder={props.pending ? 'Analysing the sweeps…' : undefined}
         onDrawn={(version) => props.onDrawn('cmrr', version)}
       />
       <LogFrequencyChart
@@ -77,6 +81,7 @@ export default function SessionCharts(props: SessionChartsProps) {
         height={260}
         hidden={props.hidden}
         syncKey={props.syncKey}
+        placeholder={props.pending ? 'Analysing the sweeps…' : undefined}
         onDrawn={(version) => props.onDrawn('gains', version)}
       />
     </div>
