@@ -1,3 +1,4 @@
+import type { AnalysisCache } from './analysis/analysis-cache';
 import type { Logger } from 'pino';
 import type { SessionStore } from './auth/session-store';
 import type { ServerConfig } from './config';
@@ -15,6 +16,8 @@ export interface AppContext {
   version: string;
   /** Live viewers of bench sessions. */
   hub: SessionHub;
+  /** Session analyses kept while their points are unchanged. */
+  analyses: AnalysisCache;
   /** Clock used for link expiry; tests replace it. */
   now: () => Date;
 }

@@ -9,6 +9,7 @@ import { createSessionStore } from './auth/session-store';
 import type { ServerConfig } from './config';
 import { openDatabase } from './db';
 import { createMailer } from './mail/mailer';
+import { createAnalysisCache } from './analysis/analysis-cache';
 import { loadSessionAnalysis } from './analysis/load-session-analysis';
 import { liveAnalysisMaximumPoints, thinAnalysis } from './analysis/thin-analysis';
 import { createSessionHub } from './live/session-hub';
@@ -43,18 +44,20 @@ export async function startServer(
   initializeModels(database.sequelize);
 
   const now = options.now ?? (() => new Date());
+  const analyses = createAnalysisCache();
   const context: AppContext = {
     config,
     database,
     hub: createSessionHub({
       // Viewers get the refit thinned for drawing, as the page asks for it over REST.
       refit: async (sessionId) => {
-        const analysis = await loadSessionAnalysis({ database, now }, sessionId);
+        const analysis = await loadSessionAnalysis({ database, now, analyses }, sessionId);
         return analysis && thinAnalysis(analysis, liveAnalysisMaximumPoints);
       },
       refitIntervalMs: 250,
       onError: (error) => logger.error({ err: error }, 'live refit failed'),
     }),
+    analyses,
     sessions: createSessionStore(database.pool, { secureCookies: config.secureCookies }),
     mailer: createMailer({ smtpUrl: config.smtpUrl, from: config.mailFrom, localStandIn: config.mailIsLocalStandIn }),
     logger,

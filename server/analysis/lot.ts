@@ -3,7 +3,7 @@ import type { Sequelize } from 'sequelize';
 import type { SessionAnalysis } from '../../shared/schemas/analysis';
 import type { Circuit, LimitMaskData } from '../../shared/schemas/designs';
 import { BenchSession, User } from '../models';
-import { analyzeSession } from './session-analysis';
+import type { AnalysisCache } from './analysis-cache';
 
 export interface LotUnit {
   sessionId: string;
@@ -15,7 +15,12 @@ export interface LotUnit {
 }
 
 /** The latest session of each unit serial against the revision (a unit measured twice counts once). */
-export async function loadLot(sequelize: Sequelize, revision: { id: string; circuit: Circuit; limitMask: LimitMaskData }, now: Date): Promise<LotUnit[]> {
+export async function loadLot(
+  sequelize: Sequelize,
+  analyses: AnalysisCache,
+  revision: { id: string; circuit: Circuit; limitMask: LimitMaskData },
+  now: Date,
+): Promise<LotUnit[]> {
   const sessions = await BenchSession.findAll({
     where: { designRevisionId: revision.id },
     include: [{ model: User, as: 'operator' }],
@@ -31,7 +36,7 @@ export async function loadLot(sequelize: Sequelize, revision: { id: string; circ
       measuredAt: session.measuredAt.toISOString(),
       status: session.status,
       operator: session.operator?.name ?? '',
-      analysis: await analyzeSession(sequelize, { id: session.id, circuit: revision.circuit, limitMask: revision.limitMask }, now),
+      analysis: await analyses.analyse(sequelize, { id: session.id, designRevisionId: revision.id, circuit: revision.circuit, limitMask: revision.limitMask }, now),
     });
   }
   return units;

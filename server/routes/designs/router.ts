@@ -50,7 +50,7 @@ export function designsRouter(context: AppContext): Router {
   const lotOf = async (designId: string, revisionId: string) => {
     const revision = await DesignRevision.findOne({ where: { id: revisionId, designId }, include: [{ model: Design, as: 'design' }] });
     if (!revision?.design) throw notFound('No such design revision');
-    const units = await loadLot(sequelize, revision, context.now());
+    const units = await loadLot(sequelize, context.analyses, revision, context.now());
     const analysed = units.filter((unit) => unit.analysis.status === 'complete' && unit.analysis.points.length > 0);
     const frequencies = [...new Set(analysed.flatMap((unit) => unit.analysis.points.map((point) => point.frequencyHz)))].sort((a, b) => a - b);
     // The predicted spread of the lot: Monte Carlo over the revision's tolerances (seeded, so a

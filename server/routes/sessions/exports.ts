@@ -5,7 +5,6 @@ import type { SessionAnalysis } from '../../../shared/schemas/analysis';
 import type { Circuit } from '../../../shared/schemas/designs';
 import type { BenchSessionDetail } from '../../../shared/schemas/bench-sessions';
 import type { AppContext } from '../../app-context';
-import { analyzeSession } from '../../analysis/session-analysis';
 import { csvDocument, safeFileName } from '../../exports/csv';
 import { notFound } from '../../http/errors';
 import { BenchSession, Design, DesignRevision } from '../../models';
@@ -21,7 +20,11 @@ export async function loadSessionRecord(context: AppContext, sessionId: string, 
   const session = await BenchSession.findByPk(sessionId, { include: [{ model: DesignRevision, as: 'designRevision', include: [{ model: Design, as: 'design' }] }] });
   if (!session?.designRevision?.design) throw notFound('No such bench session');
   const revision = session.designRevision;
-  const analysis = await analyzeSession(context.database.sequelize, { id: session.id, circuit: revision.circuit, limitMask: revision.limitMask }, context.now());
+  const analysis = await context.analyses.analyse(
+    context.database.sequelize,
+    { id: session.id, designRevisionId: revision.id, circuit: revision.circuit, limitMask: revision.limitMask },
+    context.now(),
+  );
   return {
     detail,
     design: { name: revision.design!.name, revisionLabel: revision.label, circuit: revision.circuit, limitMask: revision.limitMask },
