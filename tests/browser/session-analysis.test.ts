@@ -176,6 +176,18 @@ describe('session analysis in the browser', () => {
     expect(await page.locator('.u-over').count()).toBeGreaterThanOrEqual(2);
     expect(await page.evaluate(() => performance.getEntriesByName('session-charts').length)).toBe(1);
     expect(await page.getByRole('checkbox', { name: 'Measured values' }).count()).toBe(1);
+    // Every analysed point, worst margin first: the first row is the tightest frequency named beside the charts.
+    const table = page.getByTestId('analysis-points');
+    await table.locator('summary').click();
+    await table.getByRole('button', { name: /Margin/ }).click();
+    await expect.poll(() => new URL(page.url()).searchParams.get('cmrrSort'), patient).toBe('marginDb');
+    await expect.poll(() => table.locator('tbody tr').count(), patient).toBe(25);
+    // "+6.2 dB above the 80.0 dB limit at 85 Hz (…)": the margin and the frequency.
+    const tightest = squash((await page.getByTestId('tightest-margin').textContent()) ?? '');
+    const [, tightestMargin, tightestFrequency] = tightest.match(/^(\S+ dB) (?:above|below) the .* limit at (\S+ k?Hz) /)!;
+    const firstRow = table.locator('tbody tr').first().locator('td');
+    await expect.poll(async () => (await firstRow.allTextContents()).filter((_, column) => column === 0 || column === 6), patient).toEqual([tightestFrequency, tightestMargin]);
+    await screenshot(page, shots, '00b-points-by-margin');
     // HRB204-0003 is archived in the demo: it takes no more points, so no "Live" marker.
     expect(await page.getByText(/^Archived by /).count()).toBe(1);
     expect(await page.locator('[data-live-status]').count()).toBe(0);

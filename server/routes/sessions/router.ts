@@ -1,10 +1,12 @@
 import { Router } from 'express';
 import { Op, QueryTypes, type Order, type WhereOptions } from 'sequelize';
 import type { z } from 'zod';
+import { analysisPointsQuerySchema } from '../../../shared/schemas/analysis';
 import { benchSessionListQuerySchema, createBenchSessionSchema } from '../../../shared/schemas/bench-sessions';
 import { deleteSweepSchema, sweepPointsQuerySchema } from '../../../shared/schemas/sweeps';
 import type { AppContext } from '../../app-context';
 import { loadSessionAnalysis } from '../../analysis/load-session-analysis';
+import { pageAnalysisPoints } from '../../analysis/analysis-points';
 import { thinAnalysis } from '../../analysis/thin-analysis';
 import { authenticate, authorize } from '../../auth/middleware';
 import { badRequest, notFound } from '../../http/errors';
@@ -206,6 +208,14 @@ export function sessionsRouter(context: AppContext): Router {
     const analysis = await loadSessionAnalysis(context, String(request.params.id));
     if (!analysis) throw notFound('No such bench session');
     response.json({ analysis: maxPoints === null ? analysis : thinAnalysis(analysis, maxPoints) });
+  });
+
+  router.get('/:id/analysis/points', async (request, response) => {
+    const parsed = analysisPointsQuerySchema.safeParse(request.query);
+    if (!parsed.success) throw badRequest('Invalid analysed-points query', Object.fromEntries(parsed.error.issues.map((issue) => [issue.path.join('.'), issue.message])));
+    const analysis = await loadSessionAnalysis(context, String(request.params.id));
+    if (!analysis) throw notFound('No such bench session');
+    response.json(pageAnalysisPoints(analysis, parsed.data));
   });
 
   return router;

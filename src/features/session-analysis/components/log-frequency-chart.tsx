@@ -197,7 +197,9 @@ export function LogFrequencyChart(props: LogFrequencyChartProps) {
               </span>
             ))}
           </>
-        ) : props.placeholder ? null : (
+        ) : props.placeholder ? (
+          <span className="text-ink-600">Hover readouts and zoom come with the data.</span>
+        ) : (
           <span className="text-ink-600">Point at the chart to read every trace at one frequency; drag across to zoom, double-click to show all.</span>
         )}
       </div>

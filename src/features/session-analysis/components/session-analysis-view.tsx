@@ -17,6 +17,7 @@ import { prepareSessionCharts } from '../../../lib/charts/session-chart-data';
 import { sessionChartWidthPx } from '../../../lib/charts/session-chart-width';
 import { formatDateTime } from '../../../lib/format-date';
 import { useDesignRevision } from '../api/get-design-revision';
+import { AnalysisPointsTable } from './analysis-points-table';
 import { SESSION_BAND_TRIALS, useMonteCarloBand } from '../hooks/use-monte-carlo-band';
 import { fitParameterRows, marginStatement, prepareResiduals, thinPrediction, thinSessionPoints } from './analysis-figures';
 import { alignToFixedSeries, cmrrSeries, gainSeries, type TraceGroup } from './chart-series';
@@ -327,7 +328,7 @@ export default function SessionAnalysisView({ session, analysis, analysisUpdated
         </div>
       )}
 
-      {analysis && analysis.points.length > 0 && <PointsTable analysis={analysis} />}
+      {analysis && analysis.points.length > 0 && <AnalysisPointsTable sessionId={session.id} computedAt={analysis.computedAt} pointCount={analysis.thinnedFrom ?? analysis.points.length} />}
     </div>
   );
 }
@@ -386,74 +387,3 @@ function Panel({ title, children }: { title: string; children: ReactNode }) {
   );
 }
 
-const pointsPageSize = 50;
-
-/** Every CMRR point with its fit, prediction, limit and verdict; paged here so a 100,000-point session stays quick. */
-function PointsTable({ analysis }: { analysis: SessionAnalysis }) {
-  const [open, setOpen] = useState(false);
-  const [page, setPage] = useState(1);
-  const pages = Math.max(1, Math.ceil(analysis.points.length / pointsPageSize));
-  const current = Math.min(page, pages);
-  const first = (current - 1) * pointsPageSize;
-  const fit = analysis.fit;
-  return (
-    <details className="rounded-md border border-ink-200" onToggle={(event) => setOpen(event.currentTarget.open)}>
-      <summary className="cursor-pointer px-4 py-2 font-medium text-trace-700">
-        CMRR at each point (<span className="tabular">{analysis.points.length.toLocaleString('en')}</span>)
-      </summary>
-      {open && (
-        <>
-          <div className="overflow-x-auto">
-            <table className="min-w-full text-[0.9375rem]">
-              <caption className="sr-only">CMRR at each measured frequency</caption>
-              <thead className="bg-ink-50 text-ink-700">
-                <tr>
-                  {['Frequency', 'CMRR', 'Fit', 'Residual', 'Predicted', 'Limit', 'Verdict'].map((heading) => (
-                    <th key={heading} scope="col" className={`px-3 py-1.5 font-semibold ${heading === 'Verdict' ? 'text-left' : 'text-right'}`}>
-                      {heading}
-                    </th>
-                  ))}
-                </tr>
-              </thead>
-              <tbody className="divide-y divide-ink-100">
-                {analysis.points.slice(first, first + pointsPageSize).map((point, offset) => {
-                  const index = first + offset;
-                  const verdict = analysis.limits?.verdicts[index];
-                  return (
-                    <tr key={`${point.frequencyHz}-${index}`}>
-                      <td className="tabular px-3 py-1 text-right">{formatFrequencyHz(point.frequencyHz)}</td>
-                      <td className="tabular px-3 py-1 text-right" title={point.lowerBound ? 'Output at the noise floor: the CMRR is at least this' : undefined}>
-                        {formatDb(point.cmrrDb, { lowerBound: point.lowerBound })}
-                      </td>
-                      <td className="tabular px-3 py-1 text-right">{formatDb(fit?.fittedCmrrDb[index])}</td>
-                      <td className="tabular px-3 py-1 text-right">{formatDb(fit?.residualsDb[index], { digits: 2, signed: true })}</td>
-                      <td className="tabular px-3 py-1 text-right">{formatDb(analysis.prediction[index]?.cmrrDb)}</td>
-                      <td className="tabular px-3 py-1 text-right">{formatDb(verdict?.limitDb)}</td>
-                      <td className="px-3 py-1">{verdict ? <OutcomeBadge outcome={verdict.outcome} /> : '—'}</td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
-          </div>
-          <div className="flex flex-wrap items-center justify-between gap-2 px-4 py-2 text-[0.875rem] text-ink-600">
-            <span>“≥” marks a lower bound: the common-mode output was at its noise floor.</span>
-            {pages > 1 && (
-              <span className="flex items-center gap-2">
-                <button type="button" className="rounded border border-ink-300 px-2 py-0.5 disabled:opacity-50" disabled={current <= 1} onClick={() => setPage(current - 1)}>
-                  Previous
-                </button>
-                <span className="tabular">
-                  {current} / {pages}
-                </span>
-                <button type="button" className="rounded border border-ink-300 px-2 py-0.5 disabled:opacity-50" disabled={current >= pages} onClick={() => setPage(current + 1)}>
-                  Next
-                </button>
-              </span>
-            )}
-          </div>
-        </>
-      )}
-    </details>
-  );
-}
