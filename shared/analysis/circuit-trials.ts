@@ -16,6 +16,7 @@ import {
   type OpAmpTermSign,
   type ToleranceDistribution,
 } from '../engine';
+import { float64Of, type TrialScratch } from './trial-scratch';
 
 /** How the sign of each op-amp's own common-mode term is chosen per trial. */
 export type OpAmpSignChoice = 'random' | OpAmpTermSign;
@@ -194,13 +195,13 @@ function drawUniform(resistors: readonly NominalResistor[], columns: Float64Arra
 }
 
 /** Normal draws, σ = tol/3, by Marsaglia's polar method on consecutive pairs of words (the engine's order). */
-function drawNormal(resistors: readonly NominalResistor[], columns: Float64Array[], trials: number, seed: number): void {
+function drawNormal(resistors: readonly NominalResistor[], columns: Float64Array[], trials: number, seed: number, scratch: TrialScratch | undefined): void {
   const perTrial = resistors.length;
   const base = Float64Array.from(resistors, (r) => r.ohms + r.seriesOhms);
   const scale = Float64Array.from(resistors, (r) => (r.ohms * r.toleranceFraction) / 3);
   const generator = createSeededRandom(seed);
   const words = new Uint32Array(SCRATCH_WORDS);
-  const normals = new Float64Array(perTrial * trials);
+  const normals = float64Of(scratch, 'normals', perTrial * trials);
   let cursor = words.length;
   let filled = 0;
   while (filled < normals.length) {
@@ -233,23 +234,24 @@ function drawNormal(resistors: readonly NominalResistor[], columns: Float64Array
  * same order as the engine's monteCarloCmrr (four words per trial, R1…R4; pairs of words per two
  * normals), so a difference amplifier's trials are the very trials monteCarloCmrr draws for the
  * same network and seed. An instrumentation amplifier draws seven resistors per trial (R1…R4, RF1,
- * RF2, RG). Signs of the op-amp terms come from a second stream. O(trials).
+ * RF2, RG). Signs of the op-amp terms come from a second stream. O(trials). With `scratch`, the
+ * arrays are the scratch's (overwritten, not allocated): the result is valid until its next use.
  *
  * @throws EngineInputError for a bad resistor, tolerance or option (naming the field)
  * @example drawCircuitTrials(circuit, { trials: 3, seed: 1, distribution: 'uniform', opAmpTermSign: 1 }).r4Ohms.length // → 3
  */
-export function drawCircuitTrials(circuit: Circuit, options: CircuitTrialOptions): CircuitTrials {
+export function drawCircuitTrials(circuit: Circuit, options: CircuitTrialOptions, scratch?: TrialScratch): CircuitTrials {
   const resistors = nominalResistors(circuit, 'drawCircuitTrials');
   const { trials, seed, distribution } = options;
-  const columns = resistors.map(() => new Float64Array(trials));
+  const columns = resistors.map((resistor) => float64Of(scratch, resistor.name, trials));
   if (distribution === 'uniform') drawUniform(resistors, columns, trials, seed);
-  else drawNormal(resistors, columns, trials, seed);
+  else drawNormal(resistors, columns, trials, seed, scratch);
   let signBits: Uint8Array | null = null;
-  if (options.opAmpTermSign === -1) signBits = new Uint8Array(trials).fill(7);
+  if (options.opAmpTermSign === -1) signBits = (scratch ? scratch.uint8('signBits', trials) : new Uint8Array(trials)).fill(7);
   else if (options.opAmpTermSign === 'random') {
-    const signWords = new Uint32Array(trials);
+    const signWords = scratch ? scratch.uint32('signWords', trials) : new Uint32Array(trials);
     createSeededRandom(signSeed(seed)).fillUint32(signWords);
-    signBits = new Uint8Array(trials);
+    signBits = scratch ? scratch.uint8('signBits', trials) : new Uint8Array(trials);
     // The top bits of xoshiro128** output are its strongest.
     for (let trial = 0; trial < trials; trial++) signBits[trial] = signWords[trial] >>> 29;
   }

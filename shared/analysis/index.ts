@@ -3,6 +3,7 @@
 
 // Monte Carlo trials of a stored design, solved by the engine's node equations
 export * from './circuit-trials';
+export * from './trial-scratch';
 export * from './percentiles';
 export * from './prediction-band';
 

@@ -13,6 +13,7 @@ import {
   type CircuitTrials,
   type OpAmpSignChoice,
 } from './circuit-trials';
+import { float64Of, type TrialScratch } from './trial-scratch';
 
 /** Percentiles of the trials' CMRR at one frequency, dB. */
 export interface MonteCarloBandPoint {
@@ -41,6 +42,8 @@ export interface MonteCarloAtFrequencyOptions extends Partial<CircuitTrialOption
   limitDb?: number;
   /** About how many histogram bins to use (5 … 400; the step is rounded to 1, 2 or 5 × 10ⁿ dB). */
   histogramBins?: number;
+  /** Arrays kept between runs (a worker's): the run allocates nothing of size O(trials). */
+  scratch?: TrialScratch;
 }
 
 /** A histogram of CMRR in dB: `counts[i]` trials in `[edgesDb[i], edgesDb[i + 1])` (the last bin includes its top edge). */
@@ -277,8 +280,8 @@ export function monteCarloAtFrequency(circuit: Circuit, frequencyHz: number, opt
       field: 'histogramBins',
     });
   }
-  const trials = drawCircuitTrials(circuit, settings);
-  const valuesDb = new Float64Array(settings.trials);
+  const trials = drawCircuitTrials(circuit, settings, options.scratch);
+  const valuesDb = float64Of(options.scratch, 'valuesDb', settings.trials);
   trialCmrrDb(trials, frequencyHz, valuesDb);
   let passing = 0;
   if (options.limitDb !== undefined) for (let index = 0; index < valuesDb.length; index++) if (valuesDb[index] >= options.limitDb) passing++;

@@ -3,12 +3,14 @@
 import { drawCircuitTrials, fillTrialRatiosSquared, resolveTrialOptions, type CircuitTrials } from '../../shared/analysis/circuit-trials';
 import { percentilesInPlace } from '../../shared/analysis/percentiles';
 import { monteCarloAtFrequency, worstCaseCmrrAtFrequency, type MonteCarloAtFrequencyResult } from '../../shared/analysis/prediction-band';
+import { float64Of, type TrialScratch } from '../../shared/analysis/trial-scratch';
 import { EngineInputError } from '../../shared/engine/errors';
 import type { ExplorerBandPoint, MonteCarloResponse, MonteCarloRunRequest } from './monte-carlo-protocol';
 
 /** The first step: everything at the chosen frequency (monteCarloAtFrequency of the shared analysis). */
-export function runAtFrequency(request: MonteCarloRunRequest): MonteCarloAtFrequencyResult {
+export function runAtFrequency(request: MonteCarloRunRequest, scratch?: TrialScratch): MonteCarloAtFrequencyResult {
   return monteCarloAtFrequency(request.circuit, request.frequencyHz, {
+    scratch,
     trials: request.trials,
     seed: request.seed,
     histogramBins: request.histogramBins,
@@ -27,10 +29,14 @@ export class BandRun {
   private readonly frequencies: readonly number[];
   readonly points: ExplorerBandPoint[] = [];
 
-  constructor(private readonly request: MonteCarloRunRequest) {
+  /** `scratch`: arrays kept between bands; a band abandoned for a newer one must not step again. */
+  constructor(
+    private readonly request: MonteCarloRunRequest,
+    scratch?: TrialScratch,
+  ) {
     const settings = resolveTrialOptions('BandRun', request.circuit, { trials: request.bandTrials, seed: request.seed }, request.bandTrials);
-    this.trials = drawCircuitTrials(request.circuit, settings);
-    this.scratch = new Float64Array(settings.trials);
+    this.trials = drawCircuitTrials(request.circuit, settings, scratch);
+    this.scratch = float64Of(scratch, 'bandValues', settings.trials);
     this.frequencies = request.bandFrequenciesHz;
   }
 

@@ -3,12 +3,17 @@
 // frequency (100,000 trials in a few tens of ms), then computes the band frequency by frequency,
 // yielding between frequencies so a newer request can arrive and the stale band is dropped.
 import type { ExplorerBandPoint, MonteCarloResponse, MonteCarloRunRequest } from './monte-carlo-protocol';
+import { TrialScratch } from '../../shared/analysis/trial-scratch';
 import { BandRun, errorResponse, runAtFrequency } from './monte-carlo-runner';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 let newestRunId = 0;
 /** The last band computed in full: a run that changes only the histogram's frequency or limit reuses it. */
 let lastBand: { key: string; points: ExplorerBandPoint[] } | null = null;
+// Arrays kept between runs (allocating ~7 MB a run cost more than the run). Two sets: a band in
+// progress keeps its trials while a newer request's at-frequency step runs.
+const atFrequencyScratch = new TrialScratch();
+const bandScratch = new TrialScratch();
 
 function bandKey(request: MonteCarloRunRequest): string {
   return JSON.stringify([request.circuit, request.bandFrequenciesHz, request.bandTrials, request.seed]);
@@ -33,7 +38,7 @@ function send(message: MonteCarloResponse): void {
 async function run(request: MonteCarloRunRequest): Promise<void> {
   try {
     const started = performance.now();
-    const result = runAtFrequency(request);
+    const result = runAtFrequency(request, atFrequencyScratch);
     send({ type: 'at-frequency', runId: request.runId, result, computeMs: performance.now() - started });
     await yieldToMessages();
     if (request.runId !== newestRunId || request.bandFrequenciesHz.length === 0) return;
@@ -43,7 +48,7 @@ async function run(request: MonteCarloRunRequest): Promise<void> {
       return;
     }
     const bandStarted = performance.now();
-    const band = new BandRun(request);
+    const band = new BandRun(request, bandScratch);
     while (!band.done) {
       band.step();
       if (band.points.length % 4 === 0 || band.done) {
