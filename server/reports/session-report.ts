@@ -101,8 +101,19 @@ function drawChart(doc: PDFKit.PDFDocument, input: SessionReportInput, top: numb
   doc.lineWidth(1.6).dash(7, { space: 2.5 }).strokeColor('#8a3b12').stroke().undash();
   // Fitted curve: solid.
   if (analysis.fit && analysis.fit.fittedCmrrDb.length === analysis.points.length && analysis.fit.model !== 'none') {
-    doc.moveTo(xOf(analysis.points[0].frequencyHz), yOf(analysis.fit.fittedCmrrDb[0]));
-    analysis.points.slice(1).forEach((point, index) => doc.lineTo(xOf(point.frequencyHz), yOf(analysis.fit!.fittedCmrrDb[index + 1])));
+    // Where the fit has no value (a smooth description outside its resolved range) the line stops.
+    const fitted = analysis.fit.fittedCmrrDb;
+    let drawing = false;
+    analysis.points.forEach((point, index) => {
+      const value = fitted[index];
+      if (value === null || !Number.isFinite(value)) {
+        drawing = false;
+        return;
+      }
+      if (drawing) doc.lineTo(xOf(point.frequencyHz), yOf(value));
+      else doc.moveTo(xOf(point.frequencyHz), yOf(value));
+      drawing = true;
+    });
     doc.lineWidth(1.2).strokeColor(ink).stroke();
   }
   // Measured: filled circles; lower bounds: open triangles pointing up.

@@ -354,9 +354,14 @@ export interface FrequencyFit {
   /** Common-mode model |Acm(f)|² = (Acm0² + (k·f)²)/(1 + (f/fp)²): Acm0 and k (per Hz); first-order only. */
   commonModeGainModel: { acm0: number; kPerHz: number } | null;
   highFrequencySlope: HighFrequencySlope | null;
-  /** Fitted CMRR at each point's frequency, dB (same order as the points). */
+  /**
+   * Fitted CMRR at each point's frequency, dB (same order as the points). NaN where there is no
+   * fitted value: every point of model `none`, and the points of the smooth description outside
+   * its resolved range (lower bounds below the lowest or above the highest resolved frequency).
+   * JSON carries NaN as null.
+   */
   fittedCmrrDb: number[];
-  /** Measured (or bound) minus fitted CMRR at each point, dB. For a bound point a positive value means the fit lies below the bound. */
+  /** Measured (or bound) minus fitted CMRR at each point, dB; NaN where `fittedCmrrDb` is. For a bound point a positive value means the fit lies below the bound. */
   residualsDb: number[];
   /** Root mean square of the residuals of the resolved (non-bound) points, dB. */
   residualRmsDb: number;
@@ -787,8 +792,14 @@ function smoothFit(
   let squares = 0;
   let activeBoundCount = 0;
   for (let i = 0; i < n; i++) {
-    // Outside the resolved range the polynomial would extrapolate: hold its end values.
-    const x = Math.min(Math.max(log10FrequencyHz[i], resolvedLog10[0]), resolvedLog10[count - 1]);
+    // A polynomial says nothing outside the resolved points it was fitted to (it would extrapolate,
+    // and holding an end value would draw a curve the data do not show): no fitted value there.
+    const x = log10FrequencyHz[i];
+    if (x < resolvedLog10[0] || x > resolvedLog10[count - 1]) {
+      fittedCmrrDb[i] = Number.NaN;
+      residualsDb[i] = Number.NaN;
+      continue;
+    }
     fittedCmrrDb[i] = valueAt(x);
     residualsDb[i] = cmrrDb[i] - fittedCmrrDb[i];
     if (!isBound[i]) squares += residualsDb[i] ** 2;

@@ -47,6 +47,14 @@ describe('prepareResiduals', () => {
     expect(residuals.boundDb).toEqual([null, 3, null, null]);
   });
 
+  it('leaves a gap where the fit has no value (null over JSON), rather than a zero residual', () => {
+    // The smooth description has no value outside its resolved range: the server sends null there.
+    const gappy = { residualsDb: [0.5, null, null, 0.1] } as unknown as Parameters<typeof prepareResiduals>[1];
+    const residuals = prepareResiduals(points, gappy, 500);
+    expect(residuals.resolvedDb).toEqual([null, null, 0.5, 0.1]);
+    expect(residuals.boundDb).toEqual([null, null, null, null]);
+  });
+
   it('names the largest residual of a resolved point (a bound is not an error of the fit)', () => {
     expect(prepareResiduals(points, fit, 500).largest).toEqual({ frequencyHz: 1000, residualDb: 0.5 });
   });

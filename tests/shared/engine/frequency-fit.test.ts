@@ -288,6 +288,23 @@ describe('fitCmrrFrequencyResponse', () => {
       expect(fit.regimeSentence).toMatch(/^Across 10 Hz–10 kHz rejection is flat/);
     });
 
+    it('gives no fitted value outside the resolved range of the smooth curve (floor-limited ends)', () => {
+      // The corner above the band forces the smooth curve; the lowest five and the highest two
+      // frequencies are floor-limited (bounds at 90 dB, below the 100 dB level).
+      const bounds = new Map([0, 1, 2, 3, 4, 29, 30].map((index) => [index, 90] as [number, number]));
+      const fit = fitCmrrFrequencyResponse(
+        modelPoints({ frequencyHz: logSpaced(10, 10e3, 31), cmrrDcDb: 100, cornerHz: 1e9, noiseDb: 0.2, seed: 5, bounds }),
+      );
+      expect(fit.model).toBe('smooth');
+      for (const index of [0, 1, 2, 3, 4, 29, 30]) {
+        expect(fit.fittedCmrrDb[index]).toBeNaN();
+        expect(fit.residualsDb[index]).toBeNaN();
+      }
+      for (let index = 5; index <= 28; index++) expect(Number.isFinite(fit.fittedCmrrDb[index])).toBe(true);
+      expect(fit.activeBoundCount).toBe(0);
+      expect(Number.isFinite(fit.residualRmsDb)).toBe(true);
+    });
+
     it('falls back when the corner lies below the measured range, giving no dc value but the slope', () => {
       const fit = fitCmrrFrequencyResponse(
         modelPoints({ frequencyHz: logSpaced(1e3, 1e6, 31), cmrrDcDb: 100, cornerHz: 10, noiseDb: 0.2, seed: 9 }),

@@ -89,7 +89,8 @@ export function prepareResiduals(points: readonly CmrrPoint[], fit: FrequencyFit
   for (let at = 0; at < count; at++) {
     const index = order[at];
     frequencyHz[at] = points[index].frequencyHz;
-    residual[at] = fit.residualsDb[index];
+    // No residual (null over JSON) where the fit has no value: NaN here, dropped below.
+    residual[at] = fit.residualsDb[index] ?? Number.NaN;
     if (!points[index].lowerBound && Number.isFinite(residual[at]) && (!largest || Math.abs(residual[at]) > Math.abs(largest.residualDb))) {
       largest = { frequencyHz: frequencyHz[at], residualDb: residual[at] };
     }
