@@ -10,9 +10,7 @@
 // difference amplifier's run.
 // Run: node --import tsx bench/tolerance-explorer.bench.ts [--client-dir dist/client] [--runs 15]
 import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
 import { loadavg } from 'node:os';
-import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import type { Page } from 'playwright-core';
@@ -187,13 +185,7 @@ print(np.median(times))
 }
 
 try {
-  let clientDir = options['client-dir'] ? path.resolve(options['client-dir']) : path.join(scratch.workDir, 'client');
-  if (!options['client-dir']) {
-    const built = spawnSync(path.join(root, 'node_modules', '.bin', 'vite'), ['build', '--outDir', clientDir, '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
-    if (built.status !== 0) throw new Error(`client build failed: ${built.stderr}`);
-  }
-  if (!existsSync(path.join(clientDir, 'index.html'))) throw new Error(`no built client in ${clientDir}`);
-  clientDir = path.resolve(clientDir);
+  const clientDir = scratch.buildClient(options['client-dir']);
   const cluster = await scratch.startCluster();
   const url = await scratch.startServer(cluster.url('postgres'), { env: { CLIENT_DIR: clientDir, AUTH_RATE_LIMIT: '100000' } });
   const browser = await launchBrowser();

@@ -1,13 +1,15 @@
 // What a benchmark needs around it: a fresh /tmp folder, a throwaway PostgreSQL cluster in it, and
 // the API server as a child process on a seeded database; all of it removed again on exit or Ctrl-C.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
+import { chmodSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { freePort, startCluster, type Cluster } from '../../scripts/lib/postgres-cluster';
 
 export interface ScratchServer {
   /** The fresh folder (traversable by the postgres user). */
   workDir: string;
+  /** The built client: `given` when it names one (checked), else a production build into the folder. */
+  buildClient(given?: string): string;
   /** Starts the cluster in the folder, on `port` or a free one. */
   startCluster(port?: number): Promise<Cluster>;
   /** Seeds the demo on `databaseUrl`, starts server/main.ts with `env` added, resolves with its URL once healthy. */
@@ -23,6 +25,15 @@ export function createScratchServer(root: string): ScratchServer {
 
   const scratch: ScratchServer = {
     workDir,
+    buildClient(given) {
+      const clientDir = path.resolve(given ?? path.join(workDir, 'client'));
+      if (!given) {
+        const built = spawnSync(path.join(root, 'node_modules', '.bin', 'vite'), ['build', '--outDir', clientDir, '--logLevel', 'warn'], { cwd: root, encoding: 'utf8' });
+        if (built.status !== 0) throw new Error(`client build failed: ${built.stderr}`);
+      }
+      if (!existsSync(path.join(clientDir, 'index.html'))) throw new Error(`no built client in ${clientDir}`);
+      return clientDir;
+    },
     async startCluster(port) {
       cluster = await startCluster(path.join(workDir, 'pg'), port ?? (await freePort()));
       return cluster;
