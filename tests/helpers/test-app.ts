@@ -4,6 +4,7 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import pino from 'pino';
+import request from 'supertest';
 import { loadConfig, type ServerConfig } from '../../server/config';
 import { listMessages, readMessage } from '../../server/mail/mailbox';
 import { startMailStandIn, type MailStandIn } from '../../server/mail/local-stand-in';
@@ -22,6 +23,8 @@ export interface TestApp {
   linkSentTo(to: string): Promise<string>;
   /** Lets a test move the server's clock forward (link expiry). */
   advanceClock(milliseconds: number): void;
+  /** A supertest agent signed in as `email` (demo password by default), sending the app's Origin. */
+  signedIn(email: string, password?: string): Promise<ReturnType<typeof request.agent>>;
   close(): Promise<void>;
 }
 
@@ -73,6 +76,11 @@ export async function startTestApp(options: { seed?: 'accounts' | 'demo' | false
     },
     advanceClock(milliseconds) {
       clockOffset += milliseconds;
+    },
+    async signedIn(email, password = 'bench-demo') {
+      const agent = request.agent(server.url).set('Origin', server.url);
+      await agent.post('/api/auth/sign-in').send({ email, password }).expect(200);
+      return agent;
     },
     async close() {
       await server.close();

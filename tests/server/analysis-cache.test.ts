@@ -1,4 +1,3 @@
-import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createAnalysisCache, sessionDataVersion, type AnalysedSession } from '../../server/analysis/analysis-cache';
 import { analyzeSession } from '../../server/analysis/session-analysis';
@@ -13,12 +12,11 @@ import { startTestApp, type TestApp } from '../helpers/test-app';
 // sweep, points appended to a streaming sweep, a deleted sweep) gives a fresh analysis, and
 // unchanged data gives the kept one. The demo lab's sessions are the subject.
 let app: TestApp;
-let lead: ReturnType<typeof request.agent>;
+let lead: Awaited<ReturnType<TestApp['signedIn']>>;
 
 beforeAll(async () => {
   app = await startTestApp({ seed: 'demo' });
-  lead = request.agent(app.url).set('Origin', app.origin);
-  await lead.post('/api/auth/sign-in').send({ email: 'lead@rejectra.test', password: 'bench-demo' }).expect(200);
+  lead = await app.signedIn('lead@rejectra.test');
 });
 afterAll(async () => {
   await app?.close();

@@ -76,8 +76,7 @@ describe('GET /api/sessions/:id/analysis/points', () => {
   let sessionId: string;
   beforeAll(async () => {
     app = await startTestApp({ seed: 'demo' });
-    lead = request.agent(app.url).set('Origin', app.origin);
-    await lead.post('/api/auth/sign-in').send({ email: 'lead@rejectra.test', password: 'bench-demo' }).expect(200);
+    lead = await app.signedIn('lead@rejectra.test');
     sessionId = (await lead.get('/api/sessions?search=HRB204-0012').expect(200)).body.items[0].id;
   });
   afterAll(async () => {

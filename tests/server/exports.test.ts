@@ -15,8 +15,7 @@ const work = mkdtempSync(path.join(os.tmpdir(), 'rejectra-export-'));
 
 beforeAll(async () => {
   app = await startTestApp({ seed: 'demo' });
-  lead = request.agent(app.url).set('Origin', app.origin);
-  await lead.post('/api/auth/sign-in').send({ email: 'lead@rejectra.test', password: 'bench-demo' }).expect(200);
+  lead = await app.signedIn('lead@rejectra.test');
 });
 afterAll(async () => {
   await app?.close();

@@ -88,15 +88,21 @@ describe('marginStatement', () => {
 });
 
 describe('fitParameterRows', () => {
+  // A 0.05 % mismatched gain-10 stage with op-amp data (invented for the test), fitted from its own prediction.
+  const predictedFit = () =>
+    fitCmrrFrequencyResponse(
+      pointsFromPrediction(
+        predictDifferenceAmplifier(logSpacedFrequencies(10, 1e5, 25), { r1Ohms: 10e3, r2Ohms: 100e3, r3Ohms: 10e3, r4Ohms: 100.05e3 }, {
+          openLoopGainDb: 120,
+          gainBandwidthHz: 1e7,
+          cmrrDb: 110,
+          cmrrCornerHz: 2000,
+        }),
+      ),
+    );
+
   it('lists dc CMRR, corner, bandwidth, slope and residual with units and 95 % intervals', () => {
-    const prediction = predictDifferenceAmplifier(logSpacedFrequencies(10, 1e5, 25), { r1Ohms: 10e3, r2Ohms: 100e3, r3Ohms: 10e3, r4Ohms: 100.05e3 }, {
-      openLoopGainDb: 120,
-      gainBandwidthHz: 1e7,
-      cmrrDb: 110,
-      cmrrCornerHz: 2000,
-    });
-    const fit = fitCmrrFrequencyResponse(pointsFromPrediction(prediction));
-    const rows = fitParameterRows(fit);
+    const rows = fitParameterRows(predictedFit());
     expect(rows.map((row) => row.key)).toEqual(['dc-cmrr', 'corner', 'bandwidth', 'slope', 'residual']);
     expect(rows[0].value).toMatch(/^\d+\.\d dB$/);
     expect(rows[0].detail).toMatch(/^95 %: \d+\.\d dB … \d+\.\d dB$/);
@@ -105,13 +111,7 @@ describe('fitParameterRows', () => {
   });
 
   it('writes the counts of a long sweep with thousands separators', () => {
-    const prediction = predictDifferenceAmplifier(logSpacedFrequencies(10, 1e5, 25), { r1Ohms: 10e3, r2Ohms: 100e3, r3Ohms: 10e3, r4Ohms: 100.05e3 }, {
-      openLoopGainDb: 120,
-      gainBandwidthHz: 1e7,
-      cmrrDb: 110,
-      cmrrCornerHz: 2000,
-    });
-    const fit = { ...fitCmrrFrequencyResponse(pointsFromPrediction(prediction)), activePointCount: 100_000, activeBoundCount: 1_250, degreesOfFreedom: 99_998 };
+    const fit = { ...predictedFit(), activePointCount: 100_000, activeBoundCount: 1_250, degreesOfFreedom: 99_998 };
     expect(fitParameterRows(fit)[4].detail).toBe('100,000 points in the fit, 1,250 of them bounds; 99,998 degrees of freedom');
   });
 });
