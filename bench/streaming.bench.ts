@@ -13,6 +13,7 @@ import pg from 'pg';
 import WebSocket from 'ws';
 import { streamSweep, type ReadingToStream } from '../cli/stream/stream-client';
 import { ensureDatabase } from '../scripts/lib/postgres-cluster';
+import { bridgeFrontEndCircuit } from '../server/demo/fictional-boards';
 import { createScratchServer } from './lib/scratch-server';
 import { simulateAmplifierSweep } from '../shared/engine/simulated-amplifier';
 
@@ -213,13 +214,7 @@ try {
     revision: {
       label: 'rev A',
       changeNote: '',
-      circuit: {
-        topology: 'difference-amplifier',
-        r1: { ohms: 10000, tolerance: 0.001 },
-        r2: { ohms: 100000, tolerance: 0.001 },
-        r3: { ohms: 10000, tolerance: 0.001 },
-        r4: { ohms: 100000, tolerance: 0.001 },
-      },
+      circuit: bridgeFrontEndCircuit({ ohms: [10_000, 100_000], sourceOhms: [0, 0], opAmp: null }),
       limitMask: { points: [{ frequencyHz: 10, minimumCmrrDb: 60 }], guardBandDb: 0 },
     },
   })) as { design: { revisions: { id: string }[] } };

@@ -4,10 +4,12 @@
 // each and the matching `rejectra predict` / `rejectra tolerance` command lines. Deterministic:
 // `node --import tsx scripts/sample-data/designs.ts`.
 //
-// Every number here is invented demo data; the op-amp part numbers are fictional.
+// Every number here is invented demo data; the op-amp part numbers are fictional. The boards'
+// circuits come from server/demo/fictional-boards.ts, as in the demo scenario.
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { bridgeFrontEndCircuit, currentSenseCircuit, currentSenseMask, fictionalOpAmp } from '../../server/demo/fictional-boards';
 import {
   monteCarloCmrr,
   predictDifferenceAmplifier,
@@ -20,14 +22,6 @@ import { createDesignSchema, type CreateDesignInput } from '../../shared/schemas
 const root = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const folder = join(root, 'sample-data', 'designs');
 
-const hrx2210 = {
-  partNumber: 'HRX-2210 (fictional)',
-  openLoopGainDb: 120,
-  gainBandwidthHz: 8e6,
-  cmrrDb: 110,
-  cmrrCornerHz: 2000,
-};
-
 const designs: { file: string; serialPrefix: string; design: CreateDesignInput }[] = [
   {
     file: 'hrb204-front-end-rev-c.json',
@@ -38,17 +32,7 @@ const designs: { file: string; serialPrefix: string; design: CreateDesignInput }
       revision: {
         label: 'rev C',
         changeNote: 'R1–R4 moved from 1 % thick film to a 0.1 % thin-film set.',
-        circuit: {
-          topology: 'difference-amplifier',
-          r1: { ohms: 4990, tolerance: 0.001 },
-          r2: { ohms: 49900, tolerance: 0.001 },
-          r3: { ohms: 4990, tolerance: 0.001 },
-          r4: { ohms: 49900, tolerance: 0.001 },
-          sourceResistance1Ohms: 175,
-          sourceResistance2Ohms: 176.5,
-          toleranceDistribution: 'uniform',
-          opAmp: hrx2210,
-        },
+        circuit: bridgeFrontEndCircuit({ sourceOhms: [175, 176.5] }),
         limitMask: {
           points: [
             { frequencyHz: 10, minimumCmrrDb: 66 },
@@ -69,28 +53,8 @@ const designs: { file: string; serialPrefix: string; design: CreateDesignInput }
       revision: {
         label: 'rev A',
         changeNote: 'First release.',
-        circuit: {
-          topology: 'instrumentation-amplifier',
-          feedback1: { ohms: 24900, tolerance: 0.001 },
-          feedback2: { ohms: 24900, tolerance: 0.001 },
-          gainResistor: { ohms: 1000, tolerance: 0.001 },
-          r1: { ohms: 10000, tolerance: 0.0005 },
-          r2: { ohms: 10000, tolerance: 0.0005 },
-          r3: { ohms: 10000, tolerance: 0.0005 },
-          r4: { ohms: 10000, tolerance: 0.0005 },
-          sourceResistance1Ohms: 0,
-          sourceResistance2Ohms: 0,
-          toleranceDistribution: 'uniform',
-          opAmp: hrx2210,
-        },
-        limitMask: {
-          points: [
-            { frequencyHz: 10, minimumCmrrDb: 90 },
-            { frequencyHz: 1000, minimumCmrrDb: 90 },
-            { frequencyHz: 10000, minimumCmrrDb: 75 },
-          ],
-          guardBandDb: 1.5,
-        },
+        circuit: currentSenseCircuit(),
+        limitMask: currentSenseMask,
       },
     },
   },
@@ -103,7 +67,7 @@ const manifest = designs.map(({ file, serialPrefix, design }) => {
   const checked = createDesignSchema.parse(design);
   writeFileSync(join(folder, file), `${JSON.stringify(design, null, 2)}\n`);
   const circuit = checked.revision.circuit;
-  const { partNumber: _partNumber, ...opAmpData } = circuit.opAmp ?? hrx2210;
+  const { partNumber: _partNumber, ...opAmpData } = circuit.opAmp ?? fictionalOpAmp;
   const opAmp: OpAmpModel = opAmpData;
   const frequenciesHz = [10, 100, 1000, 10000, 100000];
   const stage = {

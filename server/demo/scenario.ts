@@ -1,8 +1,9 @@
 // The demo scenario: the Halden Ridge Instruments lab (fictional), its load-cell bridge front-end
-// board HRB-204 in two revisions, a current-sense stage HRB-311, bench instruments, and a lot of
-// units measured against them. Every number here is invented for the demo; the readings are made
-// from the engine's own circuit model with seeded per-unit resistor errors and noise, and some
-// from synthetic captures run through the sine fit, so every page has something real to show.
+// board HRB-204 in two revisions, a current-sense stage HRB-311 (their circuits and masks from
+// ./fictional-boards.ts), bench instruments, and a lot of units measured against them. Every number
+// here is invented for the demo; the readings are made from the engine's own circuit model with
+// seeded per-unit resistor errors and noise, and some from synthetic captures run through the sine
+// fit, so every page has something real to show.
 import {
   createSeededRandom,
   fitCapture,
@@ -16,26 +17,9 @@ import type { CreateDesignData, DesignRevisionData, DifferenceAmplifierCircuit, 
 import type { InstrumentInput } from '../../shared/schemas/instruments';
 import type { SweepMode } from '../../shared/schemas/sweeps';
 import type { PointRow } from '../operations/sweep-points';
+import { bridgeFrontEndCircuit, bridgeFrontEndMask, currentSenseCircuit, currentSenseMask, fictionalOpAmp } from './fictional-boards';
 
 export const demoLab = 'Halden Ridge Instruments lab';
-
-const opAmp = { partNumber: 'HRX-2210 (fictional)', openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 };
-const bridgeMask = { points: [{ frequencyHz: 10, minimumCmrrDb: 80 }, { frequencyHz: 1000, minimumCmrrDb: 80 }, { frequencyHz: 20_000, minimumCmrrDb: 70 }], guardBandDb: 1 };
-
-function bridgeCircuit(tolerance: number): DifferenceAmplifierCircuit {
-  const resistor = (ohms: number) => ({ ohms, tolerance });
-  return {
-    topology: 'difference-amplifier',
-    r1: resistor(4990),
-    r2: resistor(49_900),
-    r3: resistor(4990),
-    r4: resistor(49_900),
-    sourceResistance1Ohms: 175,
-    sourceResistance2Ohms: 175,
-    toleranceDistribution: 'uniform',
-    opAmp,
-  };
-}
 
 export const demoDesigns: { design: Omit<CreateDesignData, 'revision'>; revisions: DesignRevisionData[] }[] = [
   {
@@ -44,8 +28,8 @@ export const demoDesigns: { design: Omit<CreateDesignData, 'revision'>; revision
       description: `Difference amplifier after a 350 Ω strain bridge, gain 10. ${demoLab}.`,
     },
     revisions: [
-      { label: 'rev C', circuit: bridgeCircuit(0.001), limitMask: bridgeMask, changeNote: 'R1–R4 moved from 1 % thick film to a 0.1 % thin-film set.' },
-      { label: 'rev D', circuit: bridgeCircuit(0.0001), limitMask: bridgeMask, changeNote: 'Matched 0.01 % network for lot 2: two of eight rev C units fell below the 80 dB limit.' },
+      { label: 'rev C', circuit: bridgeFrontEndCircuit({ tolerance: 0.001 }), limitMask: bridgeFrontEndMask, changeNote: 'R1–R4 moved from 1 % thick film to a 0.1 % thin-film set.' },
+      { label: 'rev D', circuit: bridgeFrontEndCircuit({ tolerance: 0.0001 }), limitMask: bridgeFrontEndMask, changeNote: 'Matched 0.01 % network for lot 2: two of eight rev C units fell below the 80 dB limit.' },
     ],
   },
   {
@@ -56,21 +40,8 @@ export const demoDesigns: { design: Omit<CreateDesignData, 'revision'>; revision
     revisions: [
       {
         label: 'rev A',
-        circuit: {
-          topology: 'instrumentation-amplifier',
-          feedback1: { ohms: 24_900, tolerance: 0.001 },
-          feedback2: { ohms: 24_900, tolerance: 0.001 },
-          gainResistor: { ohms: 1000, tolerance: 0.001 },
-          r1: { ohms: 10_000, tolerance: 0.0005 },
-          r2: { ohms: 10_000, tolerance: 0.0005 },
-          r3: { ohms: 10_000, tolerance: 0.0005 },
-          r4: { ohms: 10_000, tolerance: 0.0005 },
-          sourceResistance1Ohms: 0,
-          sourceResistance2Ohms: 0,
-          toleranceDistribution: 'uniform',
-          opAmp,
-        },
-        limitMask: { points: [{ frequencyHz: 10, minimumCmrrDb: 90 }, { frequencyHz: 1000, minimumCmrrDb: 90 }, { frequencyHz: 10_000, minimumCmrrDb: 75 }], guardBandDb: 1.5 },
+        circuit: currentSenseCircuit(),
+        limitMask: currentSenseMask,
         changeNote: 'First release.',
       },
     ],
@@ -138,7 +109,7 @@ function unitPrediction(circuit: DifferenceAmplifierCircuit, unit: UnitModel): D
       sourceResistance1Ohms: circuit.sourceResistance1Ohms,
       sourceResistance2Ohms: circuit.sourceResistance2Ohms * (1 + unit.sourceImbalance),
     },
-    { ...opAmp, cmrrDb: unit.opAmpCmrrDb },
+    { ...fictionalOpAmp, cmrrDb: unit.opAmpCmrrDb },
   );
 }
 
@@ -260,7 +231,7 @@ function currentSenseSessions(random: SeededRandom): DemoSession[] {
         gainResistanceOhms: vary(circuit.gainResistor),
         differenceStage: { r1Ohms: vary(circuit.r1), r2Ohms: vary(circuit.r2), r3Ohms: vary(circuit.r3), r4Ohms: vary(circuit.r4) },
       },
-      { input1: { ...opAmp, cmrrDb }, input2: { ...opAmp, cmrrDb: cmrrDb + 2 * gaussian(random) }, difference: opAmp },
+      { input1: { ...fictionalOpAmp, cmrrDb }, input2: { ...fictionalOpAmp, cmrrDb: cmrrDb + 2 * gaussian(random) }, difference: fictionalOpAmp },
     );
     const floorV = 1.5e-6;
     const sweep = (mode: SweepMode): DemoSweep => ({

@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { freePort } from '../../scripts/lib/postgres-cluster';
+import { bridgeFrontEndCircuit } from '../../server/demo/fictional-boards';
 import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier';
 import { parseSweepCsv } from '../../shared/engine/sweep-file';
 import { maximumPointsPerMessage as clientLimit } from '../../cli/stream/stream-client';
@@ -131,13 +132,7 @@ describe('rejectra stream against a server', () => {
         revision: {
           label: 'rev C',
           changeNote: '',
-          circuit: {
-            topology: 'difference-amplifier',
-            r1: { ohms: 4990, tolerance: 0.001 },
-            r2: { ohms: 49900, tolerance: 0.001 },
-            r3: { ohms: 4990, tolerance: 0.001 },
-            r4: { ohms: 49900, tolerance: 0.001 },
-          },
+          circuit: bridgeFrontEndCircuit({ sourceOhms: [0, 0], opAmp: null }),
           limitMask: { points: [{ frequencyHz: 10, minimumCmrrDb: 66 }], guardBandDb: 0 },
         },
       })

@@ -1,26 +1,17 @@
 // Inputs for bench-data tests: a design of our own fictional board and sweep files made from
 // the engine's own prediction of it (so the expected CMRR is known exactly).
+import { bridgeFrontEndCircuit } from '../../server/demo/fictional-boards';
 import { predictDifferenceAmplifier } from '../../shared/engine';
 import type { CreateDesignInput } from '../../shared/schemas/designs';
 
-/** A gain-10 difference amplifier with a 0.1 % network (invented: test data). */
+/** A gain-10 difference amplifier with a 0.1 % network and the fictional lab's op-amp (invented: test data). */
 export function testDesignInput(name = 'HRB-204 bridge front-end'): CreateDesignInput {
   return {
     name,
     description: 'Load-cell bridge front-end, gain 10',
     revision: {
       label: 'A',
-      circuit: {
-        topology: 'difference-amplifier',
-        r1: { ohms: 1000, tolerance: 0.001 },
-        r2: { ohms: 10_000, tolerance: 0.001 },
-        r3: { ohms: 1000, tolerance: 0.001 },
-        r4: { ohms: 10_000, tolerance: 0.001 },
-        sourceResistance1Ohms: 0,
-        sourceResistance2Ohms: 0,
-        toleranceDistribution: 'uniform',
-        opAmp: { partNumber: 'HX-2207', openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 },
-      },
+      circuit: bridgeFrontEndCircuit({ ohms: [1000, 10_000], sourceOhms: [0, 0] }),
       limitMask: { points: [{ frequencyHz: 10, minimumCmrrDb: 70 }, { frequencyHz: 100_000, minimumCmrrDb: 40 }], guardBandDb: 0 },
       changeNote: '',
     },

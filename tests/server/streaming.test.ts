@@ -14,6 +14,7 @@ import WebSocket from 'ws';
 import { freePort } from '../../scripts/lib/postgres-cluster';
 import { createAccessToken } from '../../server/auth/access-tokens';
 import { hashPassword } from '../../server/auth/passwords';
+import { bridgeFrontEndCircuit } from '../../server/demo/fictional-boards';
 import { User } from '../../server/models';
 import { demoAccounts } from '../../server/seed';
 import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier';
@@ -30,14 +31,7 @@ const design = {
   revision: {
     label: 'rev C',
     changeNote: '',
-    circuit: {
-      topology: 'difference-amplifier',
-      r1: { ohms: 10000, tolerance: 0.001 },
-      r2: { ohms: 100000, tolerance: 0.001 },
-      r3: { ohms: 10000, tolerance: 0.001 },
-      r4: { ohms: 100000, tolerance: 0.001 },
-      opAmp: { partNumber: 'HRX-2210 (fictional)', openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 },
-    },
+    circuit: bridgeFrontEndCircuit({ ohms: [10_000, 100_000], sourceOhms: [0, 0] }),
     limitMask: { points: [{ frequencyHz: 10, minimumCmrrDb: 66 }, { frequencyHz: 20000, minimumCmrrDb: 55 }], guardBandDb: 1 },
   },
 };
