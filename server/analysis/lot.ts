@@ -41,3 +41,30 @@ export async function loadLot(
   }
   return units;
 }
+
+/** Distinct measured frequencies up to which the lot's predicted band is computed at each of them. */
+export const lotBandExactFrequencies = 500;
+/** Points per decade of the band's grid beyond that (the band is smooth; bandAt interpolates in log f). */
+export const lotBandPointsPerDecade = 24;
+
+/**
+ * Where to compute the lot's predicted Monte Carlo band: at every measured frequency while there
+ * are at most {@link lotBandExactFrequencies} of them; beyond (a unit measured at 100,000
+ * frequencies would take 10,000 trials × 100,000 frequencies) a log grid of
+ * {@link lotBandPointsPerDecade} per decade over the measured range with the mask's corners in
+ * it. The trials are the same at every frequency (seeded), so the band at a mask frequency is the
+ * same either way. Sorted, distinct, O(n log n) for n measured frequencies.
+ *
+ * @example lotBandFrequencies([10, 100, 1000], [10, 1000]) // → [10, 100, 1000]
+ */
+export function lotBandFrequencies(measuredHz: readonly number[], maskHz: readonly number[]): number[] {
+  const distinct = [...new Set(measuredHz.filter((frequencyHz) => frequencyHz > 0))].sort((a, b) => a - b);
+  if (distinct.length <= lotBandExactFrequencies) return distinct;
+  const lowest = distinct[0];
+  const highest = distinct[distinct.length - 1];
+  const steps = Math.max(1, Math.ceil(Math.log10(highest / lowest) * lotBandPointsPerDecade));
+  const grid = new Set<number>();
+  for (let step = 0; step <= steps; step++) grid.add(step === steps ? highest : Number((lowest * (highest / lowest) ** (step / steps)).toPrecision(12)));
+  for (const frequencyHz of maskHz) if (frequencyHz >= lowest && frequencyHz <= highest) grid.add(frequencyHz);
+  return [...grid].sort((a, b) => a - b);
+}

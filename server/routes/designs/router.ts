@@ -8,8 +8,12 @@ import { Design, DesignRevision } from '../../models';
 import { addDesignRevision, createDesign, loadDesignWithRevisions, sessionCountsByRevision } from '../../operations/designs';
 import { presentDesignDetail, presentDesignRevision, presentDesignSummary } from '../../presenters/design';
 import { monteCarloCmrrBand, summariseLot } from '../../../shared/analysis';
-import { loadLot } from '../../analysis/lot';
+import { loadLot, lotBandFrequencies } from '../../analysis/lot';
+import { thinAnalysis } from '../../analysis/thin-analysis';
 import { csvDocument, safeFileName } from '../../exports/csv';
+
+/** Points per unit the lot page gets: its overlay chart is one plot wide (the exports keep every point). */
+const lotPageMaximumPoints = 2000;
 
 export function designsRouter(context: AppContext): Router {
   const router = Router();
@@ -47,12 +51,16 @@ export function designsRouter(context: AppContext): Router {
     response.status(201).json({ revision: presentDesignRevision(written, 0), design: presentDesignDetail(loaded!.design, loaded!.revisions, loaded!.sessionCounts) });
   });
 
-  const lotOf = async (designId: string, revisionId: string) => {
+  /** The lot; `forPage` thins each unit's analysis for drawing (the summary is made from every point first). */
+  const lotOf = async (designId: string, revisionId: string, options: { forPage?: boolean } = {}) => {
     const revision = await DesignRevision.findOne({ where: { id: revisionId, designId }, include: [{ model: Design, as: 'design' }] });
     if (!revision?.design) throw notFound('No such design revision');
     const units = await loadLot(sequelize, context.analyses, revision, context.now());
     const analysed = units.filter((unit) => unit.analysis.status === 'complete' && unit.analysis.points.length > 0);
-    const frequencies = [...new Set(analysed.flatMap((unit) => unit.analysis.points.map((point) => point.frequencyHz)))].sort((a, b) => a - b);
+    const frequencies = lotBandFrequencies(
+      analysed.flatMap((unit) => unit.analysis.points.map((point) => point.frequencyHz)),
+      revision.limitMask.points.map((point) => point.frequencyHz),
+    );
     // The predicted spread of the lot: Monte Carlo over the revision's tolerances (seeded, so a
     // lot looks the same every time it is opened).
     const band = frequencies.length > 0 ? monteCarloCmrrBand(revision.circuit, frequencies, { trials: 10_000, seed: 1 }) : undefined;
@@ -60,7 +68,7 @@ export function designsRouter(context: AppContext): Router {
     return {
       design: { id: revision.design.id, name: revision.design.name },
       revision: { id: revision.id, revision: revision.revision, label: revision.label, circuit: revision.circuit, limitMask: revision.limitMask },
-      units,
+      units: options.forPage ? units.map((unit) => ({ ...unit, analysis: thinAnalysis(unit.analysis, lotPageMaximumPoints) })) : units,
       predictedBand: band?.points ?? [],
       summary,
     };
@@ -68,7 +76,7 @@ export function designsRouter(context: AppContext): Router {
 
   // Every unit measured against one revision (its latest session), each with its analysis.
   router.get('/:id/revisions/:revisionId/lot', async (request, response) => {
-    response.json({ lot: await lotOf(String(request.params.id), String(request.params.revisionId)) });
+    response.json({ lot: await lotOf(String(request.params.id), String(request.params.revisionId), { forPage: true }) });
   });
 
   router.get('/:id/revisions/:revisionId/lot/export.json', async (request, response) => {
