@@ -2,8 +2,8 @@
 // frequency from a differential and a common-mode sweep, and its regression against frequency
 // (first-order model of DOMAIN.md, or a smooth curve when that model does not fit).
 import { readFileSync } from 'node:fs';
-import { parseArgs } from 'node:util';
 import { analyzeSweeps, type FrequencyFit, type SweepAnalysis } from '../../shared/engine/frequency-fit';
+import { parseCommandArgs } from '../parse-command-args';
 import { formatTable } from '../table';
 
 const usage = 'usage: rejectra analyze --differential FILE --common-mode FILE [--average-repeats] [--json]\n';
@@ -107,27 +107,18 @@ function readable(analysis: SweepAnalysis, differentialFile: string, commonModeF
 }
 
 export async function run(args: string[]): Promise<number> {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      options: {
-        differential: { type: 'string' },
-        'common-mode': { type: 'string' },
-        'average-repeats': { type: 'boolean', default: false },
-        json: { type: 'boolean', default: false },
-        help: { type: 'boolean', short: 'h' },
-      },
-    });
-  } catch (error) {
-    process.stderr.write(`rejectra analyze: ${(error as Error).message}\n${usage}`);
-    return 2;
-  }
+  const parsed = parseCommandArgs('analyze', usage, {
+    args,
+    options: {
+      differential: { type: 'string' },
+      'common-mode': { type: 'string' },
+      'average-repeats': { type: 'boolean', default: false },
+      json: { type: 'boolean', default: false },
+      help: { type: 'boolean', short: 'h' },
+    },
+  });
+  if (typeof parsed === 'number') return parsed;
   const { values } = parsed;
-  if (values.help) {
-    process.stdout.write(usage);
-    return 0;
-  }
   const differentialFile = values.differential;
   const commonModeFile = values['common-mode'];
   if (!differentialFile || !commonModeFile) {

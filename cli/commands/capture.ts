@@ -2,10 +2,10 @@
 // two-channel capture (CSV `time_s,input_v,output_v`, or a stereo WAV with left = input and
 // right = output), by IEEE Std 1057 sine fits of both channels at one frequency.
 import { readFileSync } from 'node:fs';
-import { parseArgs } from 'node:util';
 import { parseCaptureFile } from '../../shared/engine/capture-file';
 import { fitCapture, type ChannelFit } from '../../shared/engine/capture-fit';
 import { EngineInputError } from '../../shared/engine/errors';
+import { parseCommandArgs } from '../parse-command-args';
 import { formatTable } from '../table';
 
 const usage = 'usage: rejectra capture FILE [--frequency HZ] [--json]\n';
@@ -36,22 +36,13 @@ function formatNumber(value: number, significant = 6): string {
 
 
 export async function run(args: string[]): Promise<number> {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: true,
-      options: { frequency: { type: 'string' }, json: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
-    });
-  } catch (error) {
-    process.stderr.write(`rejectra capture: ${(error as Error).message}\n${usage}`);
-    return 2;
-  }
+  const parsed = parseCommandArgs('capture', usage, {
+    args,
+    allowPositionals: true,
+    options: { frequency: { type: 'string' }, json: { type: 'boolean', default: false }, help: { type: 'boolean', short: 'h' } },
+  });
+  if (typeof parsed === 'number') return parsed;
   const { values, positionals } = parsed;
-  if (values.help) {
-    process.stdout.write(usage);
-    return 0;
-  }
   if (positionals.length !== 1) {
     process.stderr.write(
       `rejectra capture: ${positionals.length === 0 ? 'missing FILE' : `expected one FILE, got ${positionals.length}`}\n${usage}`,

@@ -2,7 +2,6 @@
 // --opamp-cmrr-db dB --opamp-cmrr-corner-hz Hz] --frequencies F1,F2,… [--json]`: predicted Ad, Acm
 // and CMRR of the four-resistor difference amplifier with the single-pole op-amp model of
 // DOMAIN.md, for both signs of the op-amp's own common-mode term.
-import { parseArgs } from 'node:util';
 import { phaseDegComplex } from '../../shared/engine/complex';
 import {
   predictDifferenceAmplifier,
@@ -11,6 +10,7 @@ import {
   type OpAmpModel,
 } from '../../shared/engine/difference-amplifier';
 import { EngineInputError } from '../../shared/engine/errors';
+import { parseCommandArgs } from '../parse-command-args';
 import { formatTable } from '../table';
 
 const usage = `usage: rejectra predict --r1 OHMS --r2 OHMS --r3 OHMS --r4 OHMS [--rs1 OHMS --rs2 OHMS]
@@ -140,36 +140,27 @@ function pointJson(point: DifferenceAmplifierPrediction) {
 }
 
 export async function run(args: string[]): Promise<number> {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: false,
-      options: {
-        r1: { type: 'string' },
-        r2: { type: 'string' },
-        r3: { type: 'string' },
-        r4: { type: 'string' },
-        rs1: { type: 'string' },
-        rs2: { type: 'string' },
-        'open-loop-gain-db': { type: 'string' },
-        'gbw-hz': { type: 'string' },
-        'opamp-cmrr-db': { type: 'string' },
-        'opamp-cmrr-corner-hz': { type: 'string' },
-        frequencies: { type: 'string' },
-        json: { type: 'boolean', default: false },
-        help: { type: 'boolean', short: 'h' },
-      },
-    });
-  } catch (error) {
-    process.stderr.write(`rejectra predict: ${(error as Error).message}\n${usage}`);
-    return 2;
-  }
+  const parsed = parseCommandArgs('predict', usage, {
+    args,
+    allowPositionals: false,
+    options: {
+      r1: { type: 'string' },
+      r2: { type: 'string' },
+      r3: { type: 'string' },
+      r4: { type: 'string' },
+      rs1: { type: 'string' },
+      rs2: { type: 'string' },
+      'open-loop-gain-db': { type: 'string' },
+      'gbw-hz': { type: 'string' },
+      'opamp-cmrr-db': { type: 'string' },
+      'opamp-cmrr-corner-hz': { type: 'string' },
+      frequencies: { type: 'string' },
+      json: { type: 'boolean', default: false },
+      help: { type: 'boolean', short: 'h' },
+    },
+  });
+  if (typeof parsed === 'number') return parsed;
   const { values } = parsed;
-  if (values.help) {
-    process.stdout.write(usage);
-    return 0;
-  }
   const resistors: DifferenceAmplifierResistors = {
     r1Ohms: parseResistance('r1', values.r1, true) as number,
     r2Ohms: parseResistance('r2', values.r2, true) as number,

@@ -6,11 +6,11 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { parseArgs } from 'node:util';
 import type { OpAmpModel } from '../../shared/engine/difference-amplifier';
 import { EngineInputError } from '../../shared/engine/errors';
 import { simulateAmplifierSweep, type SimulatedAmplifierOptions } from '../../shared/engine/simulated-amplifier';
 import { parseSweepCsv } from '../../shared/engine/sweep-file';
+import { parseCommandArgs } from '../parse-command-args';
 import { maximumPointsPerMessage, StreamRefusedError, streamSweep, type ReadingToStream, type StreamProgress } from '../stream/stream-client';
 
 const usage = `usage: rejectra stream --url http://HOST:PORT --token rjt_… --session SESSION_ID
@@ -128,36 +128,28 @@ function progressLine(progress: StreamProgress): string {
 }
 
 export async function run(args: string[]): Promise<number> {
-  let values: Record<string, string | boolean | undefined>;
-  try {
-    ({ values } = parseArgs({
-      args,
-      allowPositionals: false,
-      options: {
-        url: { type: 'string' },
-        token: { type: 'string' },
-        session: { type: 'string' },
-        mode: { type: 'string' },
-        key: { type: 'string' },
-        file: { type: 'string' },
-        simulate: { type: 'boolean', default: false },
-        rate: { type: 'string' },
-        batch: { type: 'string' },
-        convention: { type: 'string' },
-        'retry-for': { type: 'string' },
-        json: { type: 'boolean', default: false },
-        help: { type: 'boolean', short: 'h' },
-        ...Object.fromEntries(simulationOptions.map((name) => [name, { type: 'string' as const }])),
-      },
-    }));
-  } catch (error) {
-    process.stderr.write(`rejectra stream: ${(error as Error).message}\n${usage}`);
-    return 2;
-  }
-  if (values.help) {
-    process.stdout.write(usage);
-    return 0;
-  }
+  const parsed = parseCommandArgs('stream', usage, {
+    args,
+    allowPositionals: false,
+    options: {
+      url: { type: 'string' },
+      token: { type: 'string' },
+      session: { type: 'string' },
+      mode: { type: 'string' },
+      key: { type: 'string' },
+      file: { type: 'string' },
+      simulate: { type: 'boolean', default: false },
+      rate: { type: 'string' },
+      batch: { type: 'string' },
+      convention: { type: 'string' },
+      'retry-for': { type: 'string' },
+      json: { type: 'boolean', default: false },
+      help: { type: 'boolean', short: 'h' },
+      ...Object.fromEntries(simulationOptions.map((name) => [name, { type: 'string' as const }])),
+    },
+  });
+  if (typeof parsed === 'number') return parsed;
+  const values: Record<string, string | boolean | undefined> = parsed.values;
 
   let source: Source;
   let settings: { url: string; token: string; sessionId: string; mode: 'differential' | 'common-mode'; rate: number | null; batch: number; retryForMs: number };

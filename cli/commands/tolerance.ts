@@ -3,7 +3,6 @@
 // the CMRR a four-resistor difference amplifier keeps with resistors within a tolerance (ideal
 // op-amp): exact worst case, the (1 + G)/(4ε) approximation and a seeded Monte Carlo; optionally the
 // yield against a limit, the tolerance a target needs, and the nearest IEC 60063 resistor pairs.
-import { parseArgs } from 'node:util';
 import { nearestResistorPairs, type ESeriesName } from '../../shared/engine/e-series';
 import { EngineInputError } from '../../shared/engine/errors';
 import {
@@ -14,6 +13,7 @@ import {
   worstCaseCmrrDb,
   type ToleranceDistribution,
 } from '../../shared/engine/resistor-tolerance';
+import { parseCommandArgs } from '../parse-command-args';
 import { formatTable } from '../table';
 
 const numbersAfterTheFirstColumn = (column: number) => column > 0;
@@ -58,34 +58,25 @@ function formatPercent(fraction: number): string {
 
 
 export async function run(args: string[]): Promise<number> {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: false,
-      options: {
-        gain: { type: 'string' },
-        tolerance: { type: 'string' },
-        trials: { type: 'string' },
-        seed: { type: 'string' },
-        distribution: { type: 'string' },
-        'limit-db': { type: 'string' },
-        'target-db': { type: 'string' },
-        series: { type: 'string' },
-        pairs: { type: 'string' },
-        json: { type: 'boolean', default: false },
-        help: { type: 'boolean', short: 'h' },
-      },
-    });
-  } catch (error) {
-    process.stderr.write(`rejectra tolerance: ${(error as Error).message}\n${usage}`);
-    return 2;
-  }
+  const parsed = parseCommandArgs('tolerance', usage, {
+    args,
+    allowPositionals: false,
+    options: {
+      gain: { type: 'string' },
+      tolerance: { type: 'string' },
+      trials: { type: 'string' },
+      seed: { type: 'string' },
+      distribution: { type: 'string' },
+      'limit-db': { type: 'string' },
+      'target-db': { type: 'string' },
+      series: { type: 'string' },
+      pairs: { type: 'string' },
+      json: { type: 'boolean', default: false },
+      help: { type: 'boolean', short: 'h' },
+    },
+  });
+  if (typeof parsed === 'number') return parsed;
   const { values } = parsed;
-  if (values.help) {
-    process.stdout.write(usage);
-    return 0;
-  }
   if (values.gain === undefined) throw new EngineInputError('--gain is required (R2/R1)', { field: 'gain' });
   if (values.tolerance === undefined) throw new EngineInputError('--tolerance is required (a fraction, 0.001 for 0.1 %)', { field: 'tolerance' });
   const gain = parseNumber('gain', values.gain, 'a gain above 0', (value) => value > 0);

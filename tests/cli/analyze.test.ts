@@ -1,24 +1,17 @@
-import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { analyzeSweeps } from '../../shared/engine/frequency-fit';
+import { runCli } from '../helpers/cli-runner';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 const sweeps = 'sample-data/sweeps';
 const scratch = mkdtempSync(join(tmpdir(), 'rejectra-analyze-'));
 afterAll(() => rmSync(scratch, { recursive: true, force: true }));
 
-function cli(...args: string[]) {
-  const result = spawnSync(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'analyze', ...args], {
-    cwd: root,
-    encoding: 'utf8',
-    timeout: 60_000,
-  });
-  return { status: result.status, stdout: result.stdout, stderr: result.stderr };
-}
+const cli = (...args: string[]) => runCli('analyze', args);
 
 function scratchFile(name: string, text: string): string {
   const path = join(scratch, name);
@@ -41,10 +34,10 @@ interface AnalyzeDocument {
 }
 
 describe('rejectra analyze', () => {
-  it('prints exactly one JSON document with the contract fields, equal to the engine run in-process', () => {
+  it('prints exactly one JSON document with the contract fields, equal to the engine run in-process', async () => {
     const differential = `${sweeps}/hrb204-0007-differential.csv`;
     const commonMode = `${sweeps}/hrb204-0007-common-mode.csv`;
-    const { status, stdout, stderr } = cli('--differential', differential, '--common-mode', commonMode, '--json');
+    const { status, stdout, stderr } = await cli('--differential', differential, '--common-mode', commonMode, '--json');
     expect(stderr).toBe('');
     expect(status).toBe(0);
     const document = JSON.parse(stdout) as AnalyzeDocument;
@@ -62,9 +55,9 @@ describe('rejectra analyze', () => {
     expect(Math.abs(document.fit.cmrrDcDb! - 84)).toBeLessThan(0.5);
   });
 
-  it('reports floor-limited common-mode points as flagged lower bounds computed with twice the floor', () => {
+  it('reports floor-limited common-mode points as flagged lower bounds computed with twice the floor', async () => {
     const commonMode = `${sweeps}/hrb204-0012-floor-limited-common-mode.csv`;
-    const { status, stdout } = cli('--differential', `${sweeps}/hrb204-0012-floor-limited-differential.csv`, '--common-mode', commonMode, '--json');
+    const { status, stdout } = await cli('--differential', `${sweeps}/hrb204-0012-floor-limited-differential.csv`, '--common-mode', commonMode, '--json');
     expect(status).toBe(0);
     const document = JSON.parse(stdout) as AnalyzeDocument;
     const firstRow = readFileSync(join(root, commonMode), 'utf8').split('\n').find((line) => /^\d/.test(line))!.split(',');
@@ -76,8 +69,8 @@ describe('rejectra analyze', () => {
     expect(document.points.filter((point) => point.lowerBound).length).toBeGreaterThan(3);
   });
 
-  it('prints a readable table marking bounds, with the fit summary and the regime sentence', () => {
-    const { status, stdout } = cli(
+  it('prints a readable table marking bounds, with the fit summary and the regime sentence', async () => {
+    const { status, stdout } = await cli(
       '--differential', `${sweeps}/hrb204-0012-floor-limited-differential.csv`,
       '--common-mode', `${sweeps}/hrb204-0012-floor-limited-common-mode.csv`,
     );
@@ -91,8 +84,8 @@ describe('rejectra analyze', () => {
     expect(stdout).toMatch(/^regimes {7}Below .* rejection is flat/m);
   });
 
-  it('sorts a sweep recorded in falling order', () => {
-    const { status, stdout } = cli(
+  it('sorts a sweep recorded in falling order', async () => {
+    const { status, stdout } = await cli(
       '--differential', `${sweeps}/hrb311-0003-falling-differential.csv`,
       '--common-mode', `${sweeps}/hrb311-0003-falling-common-mode.csv`, '--json',
     );
@@ -102,40 +95,40 @@ describe('rejectra analyze', () => {
     expect(frequencies.every((frequency, index) => index === 0 || frequency > frequencies[index - 1])).toBe(true);
   });
 
-  it('rejects repeated frequencies naming file, row and column, and averages them with --average-repeats', () => {
+  it('rejects repeated frequencies naming file, row and column, and averages them with --average-repeats', async () => {
     const args = ['--differential', `${sweeps}/hrb204-0021-semicolon-differential.csv`, '--common-mode', `${sweeps}/hrb204-0021-semicolon-common-mode.csv`];
-    const refused = cli(...args, '--json');
+    const refused = await cli(...args, '--json');
     expect(refused.status).toBe(1);
     expect(refused.stdout).toBe('');
     expect(refused.stderr).toMatch(
       /^rejectra analyze: sample-data\/sweeps\/hrb204-0021-semicolon-common-mode\.csv, row \d+, column "frequency_hz": parseSweepCsv: frequency 1002 Hz is repeated/,
     );
-    const averaged = cli(...args, '--json', '--average-repeats');
+    const averaged = await cli(...args, '--json', '--average-repeats');
     expect(averaged.status).toBe(0);
     expect((JSON.parse(averaged.stdout) as AnalyzeDocument).fit.model).toBe('first-order');
   });
 
-  it('names file, row and column of a bad cell', () => {
+  it('names file, row and column of a bad cell', async () => {
     const bad = scratchFile('bad.csv', 'frequency_hz,vin_v,vout_v\n100,1,1e-4\n200,1,n/a\n');
-    const { status, stdout, stderr } = cli('--differential', `${sweeps}/hrb204-0007-differential.csv`, '--common-mode', bad);
+    const { status, stdout, stderr } = await cli('--differential', `${sweeps}/hrb204-0007-differential.csv`, '--common-mode', bad);
     expect(status).toBe(1);
     expect(stdout).toBe('');
     expect(stderr).toBe(`rejectra analyze: ${bad}, row 3, column "vout_v": parseSweepCsv: "n/a" is not a number\n`);
   });
 
-  it('refuses a sweep pair with no overlapping frequencies', () => {
+  it('refuses a sweep pair with no overlapping frequencies', async () => {
     const high = scratchFile('high.csv', 'frequency_hz,vin_v,vout_v\n2e6,1,1e-3\n3e6,1,1e-3\n');
-    const { status, stderr } = cli('--differential', `${sweeps}/hrb204-0007-differential.csv`, '--common-mode', high);
+    const { status, stderr } = await cli('--differential', `${sweeps}/hrb204-0007-differential.csv`, '--common-mode', high);
     expect(status).toBe(1);
     expect(stderr).toContain('do not overlap in frequency');
     expect(stderr).toContain(high);
   });
 
-  it('says which option is missing, and which file cannot be read', () => {
-    const missing = cli('--differential', `${sweeps}/hrb204-0007-differential.csv`);
+  it('says which option is missing, and which file cannot be read', async () => {
+    const missing = await cli('--differential', `${sweeps}/hrb204-0007-differential.csv`);
     expect(missing.status).toBe(2);
     expect(missing.stderr).toContain('missing --common-mode FILE');
-    const unreadable = cli('--differential', `${sweeps}/no-such-file.csv`, '--common-mode', `${sweeps}/hrb204-0007-common-mode.csv`);
+    const unreadable = await cli('--differential', `${sweeps}/no-such-file.csv`, '--common-mode', `${sweeps}/hrb204-0007-common-mode.csv`);
     expect(unreadable.status).toBe(1);
     expect(unreadable.stderr).toBe(`rejectra analyze: cannot read ${sweeps}/no-such-file.csv: ENOENT\n`);
   });

@@ -1,26 +1,14 @@
-import { execFile } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { runCli } from '../helpers/cli-runner';
 
 const root = resolve(import.meta.dirname, '..', '..');
 const samples = join(root, 'sample-data', 'captures');
 
 /** Runs `rejectra capture …` as a child process (several run at once: the tests are concurrent). */
-function cli(...args: string[]): Promise<{ status: number | null; stdout: string; stderr: string }> {
-  return new Promise((resolveResult) => {
-    execFile(
-      process.execPath,
-      ['--import', 'tsx', 'cli/main.ts', 'capture', ...args],
-      { cwd: root, encoding: 'utf8', timeout: 60_000 },
-      (error, stdout, stderr) => {
-        const status = error ? (typeof error.code === 'number' ? error.code : null) : 0;
-        resolveResult({ status, stdout, stderr });
-      },
-    );
-  });
-}
+const cli = (...args: string[]) => runCli('capture', args);
 
 interface ManifestEntry {
   file: string;

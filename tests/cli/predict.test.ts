@@ -1,28 +1,9 @@
-import { spawn } from 'node:child_process';
-import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { predictDifferenceAmplifier } from '../../shared/engine/difference-amplifier';
-
-const root = fileURLToPath(new URL('../..', import.meta.url));
-
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
-}
+import { runCli } from '../helpers/cli-runner';
 
 /** Runs `rejectra predict …` as a child process (several run side by side to keep the file quick). */
-function cli(...args: string[]): Promise<Run> {
-  return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'predict', ...args], { cwd: root });
-    let stdout = '';
-    let stderr = '';
-    child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString('utf8')));
-    child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString('utf8')));
-    child.on('error', reject);
-    child.on('close', (status) => resolve({ status, stdout, stderr }));
-  });
-}
+const cli = (...args: string[]) => runCli('predict', args);
 
 interface PredictDocument {
   points: {

@@ -1,6 +1,5 @@
 // `rejectra stream` as a child process: argument errors without a server, then streams into a
 // whole server on its own database (startTestApp) from a sweep file and from the simulated instrument.
-import { spawn } from 'node:child_process';
 import { mkdtemp, rm, writeFile } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
@@ -13,6 +12,7 @@ import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier'
 import { parseSweepCsv } from '../../shared/engine/sweep-file';
 import { maximumPointsPerMessage as clientLimit } from '../../cli/stream/stream-client';
 import { maximumPointsPerMessage } from '../../shared/schemas/stream';
+import { runCli, type CliRun } from '../helpers/cli-runner';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
@@ -20,25 +20,8 @@ const sampleSweep = path.join(root, 'sample-data', 'sweeps', 'hrb204-0007-common
 // Demo password from server/seed.ts.
 const demoPassword = 'bench-demo';
 
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
-}
-
-function cli(args: string[], env: NodeJS.ProcessEnv = {}): Promise<Run> {
-  return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'stream', ...args], {
-      cwd: root,
-      env: { ...process.env, REJECTRA_TOKEN: '', ...env },
-    });
-    let stdout = '';
-    let stderr = '';
-    child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString('utf8')));
-    child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString('utf8')));
-    child.on('error', reject);
-    child.on('close', (status) => resolve({ status, stdout, stderr }));
-  });
+function cli(args: string[], env: NodeJS.ProcessEnv = {}): Promise<CliRun> {
+  return runCli('stream', args, { env: { REJECTRA_TOKEN: '', ...env } });
 }
 
 const fakeToken = 'rjt_notCheckedBecauseTheArgumentsAreRefusedFirst000000';

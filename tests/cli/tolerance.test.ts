@@ -1,31 +1,12 @@
-import { spawn } from 'node:child_process';
-import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { monteCarloCmrr } from '../../shared/engine/resistor-tolerance';
-
-const root = fileURLToPath(new URL('../..', import.meta.url));
+import { runCli } from '../helpers/cli-runner';
 
 /** DOMAIN.md quotes its check values to 0.01 dB. */
 const QUOTED_TO_HUNDREDTHS_DB = 0.005;
 
-interface Run {
-  status: number | null;
-  stdout: string;
-  stderr: string;
-}
-
 /** Runs `rejectra tolerance …` as a child process (several run side by side to keep the file quick). */
-function cli(...args: string[]): Promise<Run> {
-  return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'tolerance', ...args], { cwd: root });
-    let stdout = '';
-    let stderr = '';
-    child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString('utf8')));
-    child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString('utf8')));
-    child.on('error', reject);
-    child.on('close', (status) => resolve({ status, stdout, stderr }));
-  });
-}
+const cli = (...args: string[]) => runCli('tolerance', args);
 
 interface ToleranceDocument {
   worstCaseDb: number;
