@@ -8,6 +8,25 @@ export const topologyLabels: Record<Topology, string> = {
   'instrumentation-amplifier': 'Three-op-amp instrumentation amplifier',
 };
 
+/** Every resistor a stored circuit can hold (the instrumentation amplifier's input stage adds three). */
+export const circuitResistorKeys = ['r1', 'r2', 'r3', 'r4', 'feedback1', 'feedback2', 'gainResistor'] as const;
+export type CircuitResistorKey = (typeof circuitResistorKeys)[number];
+/** How a schematic labels each resistor. */
+export const circuitResistorLabels: Record<CircuitResistorKey, string> = {
+  r1: 'R1',
+  r2: 'R2',
+  r3: 'R3',
+  r4: 'R4',
+  feedback1: 'RF1',
+  feedback2: 'RF2',
+  gainResistor: 'RG',
+};
+/** The resistors of each topology, in schematic order. */
+export const topologyResistorKeys: Record<Topology, readonly CircuitResistorKey[]> = {
+  'difference-amplifier': ['r1', 'r2', 'r3', 'r4'],
+  'instrumentation-amplifier': ['feedback1', 'feedback2', 'gainResistor', 'r1', 'r2', 'r3', 'r4'],
+};
+
 const tolerance = (what: string) =>
   finiteNumber(what).refine((value) => value > 0 && value < 0.5, `${what} must be a fraction between 0 and 0.5 (0.001 = 0.1 %)`);
 

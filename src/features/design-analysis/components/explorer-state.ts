@@ -1,25 +1,21 @@
 // The tolerance explorer's own state (text as typed) and its translation into the circuit the
 // shared engine computes with. Kept apart from the components so the mapping is testable without
 // a browser. Nothing here is ever saved: the explorer tries values, the stored revision stays.
-import type { Circuit, LimitMaskData, Topology } from '../../../../shared/schemas/designs';
+import {
+  circuitResistorKeys,
+  circuitResistorLabels,
+  topologyResistorKeys,
+  type Circuit,
+  type CircuitResistorKey,
+  type LimitMaskData,
+} from '../../../../shared/schemas/designs';
 import { numberToField, parseEngineeringNumber } from '../../../lib/parse-number';
 
-export const explorerResistorKeys = ['r1', 'r2', 'r3', 'r4', 'feedback1', 'feedback2', 'gainResistor'] as const;
-export type ExplorerResistorKey = (typeof explorerResistorKeys)[number];
-export const explorerResistorLabels: Record<ExplorerResistorKey, string> = {
-  r1: 'R1',
-  r2: 'R2',
-  r3: 'R3',
-  r4: 'R4',
-  feedback1: 'RF1',
-  feedback2: 'RF2',
-  gainResistor: 'RG',
-};
+export const explorerResistorKeys = circuitResistorKeys;
+export type ExplorerResistorKey = CircuitResistorKey;
+export const explorerResistorLabels = circuitResistorLabels;
 /** The resistors of each topology, in schematic order. */
-export const explorerResistorsOf: Record<Topology, readonly ExplorerResistorKey[]> = {
-  'difference-amplifier': ['r1', 'r2', 'r3', 'r4'],
-  'instrumentation-amplifier': ['feedback1', 'feedback2', 'gainResistor', 'r1', 'r2', 'r3', 'r4'],
-};
+export const explorerResistorsOf = topologyResistorKeys;
 
 export type OpAmpFieldKey = 'openLoopGainDb' | 'gainBandwidthHz' | 'cmrrDb' | 'cmrrCornerHz';
 export const opAmpFieldKeys: readonly OpAmpFieldKey[] = ['openLoopGainDb', 'gainBandwidthHz', 'cmrrDb', 'cmrrCornerHz'];

@@ -1,7 +1,11 @@
 // The design form's own state (text as typed) and its translation to and from the API's revision
 // input. Kept apart from the form so the conversions can be tested without a browser.
 import {
+  circuitResistorKeys,
+  circuitResistorLabels,
   designRevisionInputSchema,
+  topologyResistorKeys,
+  type CircuitResistorKey,
   type Circuit,
   type DesignRevision,
   type DesignRevisionInput,
@@ -9,22 +13,11 @@ import {
 } from '../../../../shared/schemas/designs';
 import { numberToField, parseEngineeringNumber } from '../../../lib/parse-number';
 
-export const resistorNames = ['r1', 'r2', 'r3', 'r4', 'feedback1', 'feedback2', 'gainResistor'] as const;
-export type ResistorName = (typeof resistorNames)[number];
-export const resistorLabels: Record<ResistorName, string> = {
-  r1: 'R1',
-  r2: 'R2',
-  r3: 'R3',
-  r4: 'R4',
-  feedback1: 'RF1',
-  feedback2: 'RF2',
-  gainResistor: 'RG',
-};
+export const resistorNames = circuitResistorKeys;
+export type ResistorName = CircuitResistorKey;
+export const resistorLabels = circuitResistorLabels;
 /** The resistors each topology has, in schematic order. */
-export const topologyResistors: Record<Topology, readonly ResistorName[]> = {
-  'difference-amplifier': ['r1', 'r2', 'r3', 'r4'],
-  'instrumentation-amplifier': ['feedback1', 'feedback2', 'gainResistor', 'r1', 'r2', 'r3', 'r4'],
-};
+export const topologyResistors = topologyResistorKeys;
 
 export const opAmpFields = ['partNumber', 'openLoopGainDb', 'gainBandwidthHz', 'cmrrDb', 'cmrrCornerHz'] as const;
 export type OpAmpField = (typeof opAmpFields)[number];
