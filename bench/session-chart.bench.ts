@@ -11,12 +11,12 @@
 import { loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
+import { simulatedSweepRows } from '../tests/helpers/bench-fixtures';
 import { launchBrowser } from '../tests/helpers/browser';
 import { ensureDatabase } from '../scripts/lib/postgres-cluster';
 import { openDatabase } from '../server/db';
 import { initializeModels, User } from '../server/models';
 import { addCompleteSweeps } from '../server/operations/bench-sessions';
-import { simulateAmplifierSweep } from '../shared/engine/simulated-amplifier';
 import { createScratchServer } from './lib/scratch-server';
 
 const root = fileURLToPath(new URL('..', import.meta.url));
@@ -45,21 +45,8 @@ async function signIn(url: string, email: string) {
     fetch(`${url}${route}`, { method, headers: { 'content-type': 'application/json', origin: url, cookie }, body: body === undefined ? undefined : JSON.stringify(body) });
 }
 
-function sweepPoints(mode: 'differential' | 'common-mode') {
-  // The simulated instrument's readings of an invented demo amplifier, 100,000 log-spaced frequencies.
-  return simulateAmplifierSweep({
-    mode,
-    pointCount: POINTS_PER_SWEEP,
-    startFrequencyHz: 10,
-    stopFrequencyHz: 100_000,
-    gain: 10,
-    mismatchFraction: 0.0005,
-    opAmp: { openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 },
-    noiseVolts: 2e-6,
-    driveVolts: mode === 'differential' ? 0.1 : 1,
-    seed: mode === 'differential' ? 11 : 12,
-  }).map((reading, index) => ({ sequence: index + 1, frequencyHz: reading.frequencyHz, vinV: reading.vinV, voutV: reading.voutV, phaseDeg: reading.phaseDeg ?? null, floorV: reading.floorV ?? null, sourceLine: null }));
-}
+/** The simulated instrument's readings of an invented demo amplifier, 100,000 log-spaced frequencies. */
+const sweepPoints = (mode: 'differential' | 'common-mode') => simulatedSweepRows(mode, POINTS_PER_SWEEP, mode === 'differential' ? 11 : 12);
 
 async function main(): Promise<void> {
   const started = performance.now();

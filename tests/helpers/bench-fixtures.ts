@@ -2,6 +2,7 @@
 // the engine's own prediction of it (so the expected CMRR is known exactly).
 import { bridgeFrontEndCircuit } from '../../server/demo/fictional-boards';
 import { predictDifferenceAmplifier } from '../../shared/engine';
+import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier';
 import type { CreateDesignInput } from '../../shared/schemas/designs';
 
 /** A gain-10 difference amplifier with a 0.1 % network and the fictional lab's op-amp (invented: test data). */
@@ -35,4 +36,24 @@ export function predictedSweepCsv(options: { mismatch: number; frequenciesHz: nu
     commonMode: [header, ...points.map((point) => row(point.frequencyHz, point.acmDb))].join('\n') + '\n',
     cmrrDb: points.map((point) => point.cmrrDb),
   };
+}
+
+/**
+ * Stored-point rows of a long simulated sweep (the simulated instrument's readings of an invented
+ * gain-10 amplifier with a 0.05 % mismatch, 10 Hz–100 kHz log-spaced), ready for addCompleteSweeps.
+ * Seeded: the same `seed` gives the same readings.
+ */
+export function simulatedSweepRows(mode: 'differential' | 'common-mode', pointCount: number, seed: number) {
+  return simulateAmplifierSweep({
+    mode,
+    pointCount,
+    startFrequencyHz: 10,
+    stopFrequencyHz: 100_000,
+    gain: 10,
+    mismatchFraction: 0.0005,
+    opAmp: { openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 },
+    noiseVolts: 2e-6,
+    driveVolts: mode === 'differential' ? 0.1 : 1,
+    seed,
+  }).map((reading, index) => ({ sequence: index + 1, frequencyHz: reading.frequencyHz, vinV: reading.vinV, voutV: reading.voutV, phaseDeg: reading.phaseDeg ?? null, floorV: reading.floorV ?? null, sourceLine: null }));
 }

@@ -3,7 +3,7 @@ import { lotBandFrequencies, lotBandPointsPerDecade } from '../../server/analysi
 import { Design, DesignRevision, User } from '../../server/models';
 import { addCompleteSweeps, createBenchSession } from '../../server/operations/bench-sessions';
 import { createBenchSessionSchema } from '../../shared/schemas/bench-sessions';
-import { simulateAmplifierSweep } from '../../shared/engine/simulated-amplifier';
+import { simulatedSweepRows } from '../helpers/bench-fixtures';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 // A lot with one long-sweep unit: the page gets each unit thinned for drawing and a predicted band
@@ -56,20 +56,7 @@ describe('GET …/lot with a long-sweep unit', () => {
       { id: technician.id, email: technician.email, name: technician.name, role: technician.role, status: technician.status },
       new Date(),
     );
-    // The simulated instrument's readings of an invented amplifier (0.05 % mismatch), 10 Hz–100 kHz.
-    const sweep = (mode: 'differential' | 'common-mode') =>
-      simulateAmplifierSweep({
-        mode,
-        pointCount,
-        startFrequencyHz: 10,
-        stopFrequencyHz: 100_000,
-        gain: 10,
-        mismatchFraction: 0.0005,
-        opAmp: { openLoopGainDb: 120, gainBandwidthHz: 8e6, cmrrDb: 110, cmrrCornerHz: 2000 },
-        noiseVolts: 2e-6,
-        driveVolts: mode === 'differential' ? 0.1 : 1,
-        seed: mode === 'differential' ? 21 : 22,
-      }).map((reading, index) => ({ sequence: index + 1, frequencyHz: reading.frequencyHz, vinV: reading.vinV, voutV: reading.voutV, phaseDeg: reading.phaseDeg ?? null, floorV: reading.floorV ?? null, sourceLine: null }));
+    const sweep = (mode: 'differential' | 'common-mode') => simulatedSweepRows(mode, pointCount, mode === 'differential' ? 21 : 22);
     await addCompleteSweeps(sequelize, {
       sessionId: session.id,
       sweeps: [
