@@ -187,12 +187,20 @@ export interface SweepAccumulator {
   finish(): Sweep;
 }
 
+/** True when `compare` puts no neighbouring pair of `items` out of order (a NaN comparison counts as out of order). O(n). */
+function isSortedBy<T>(items: readonly T[], compare: (a: T, b: T) => number): boolean {
+  for (let index = 1; index < items.length; index++) {
+    if (!(compare(items[index - 1], items[index]) <= 0)) return false;
+  }
+  return true;
+}
+
 /**
  * Collects readings already in Hz, volts and degrees, checking each: a frequency or drive that
  * is not positive, a negative output or floor, a zero output without a positive floor, a value
  * that is not finite. `finish()` sorts by frequency (a sweep in falling order is simply sorted),
  * refuses a repeated frequency unless `averageRepeats` (then means of vin, vout and floor, circular
- * mean of phase), and needs at least 2 frequencies. O(n log n) for n readings.
+ * mean of phase), and needs at least 2 frequencies. O(n log n) for n readings, O(n) when they arrive sorted.
  *
  * @throws EngineInputError naming the file, row and column of the first bad reading.
  * @example createSweepAccumulator({ hasPhase: false, hasFloor: false }) // then add() and finish()
@@ -214,6 +222,11 @@ export function createSweepAccumulator(options: SweepAccumulatorOptions): SweepA
   const phases: number[] = [];
   const floors: number[] = [];
   const lines: number[] = [];
+  // Defined once rather than per reading: a long sweep adds 100,000 readings.
+  const at = (quantity: Quantity, line: number) => ({ file, row: line, column: names[quantity] });
+  const requireFinite = (quantity: Quantity, value: number, line: number) => {
+    if (!Number.isFinite(value)) throw new EngineInputError(`${functionName}: ${value} is not a finite number`, at(quantity, line));
+  };
 
   return {
     get rowCount() {
@@ -223,25 +236,20 @@ export function createSweepAccumulator(options: SweepAccumulatorOptions): SweepA
       const { line, frequencyHz, vinVolts, voutVolts } = reading;
       const phaseDeg = options.hasPhase ? (reading.phaseDeg ?? 0) : 0;
       const floorVolts = options.hasFloor ? (reading.floorVolts ?? 0) : 0;
-      const at = (quantity: Quantity) => ({ file, row: line, column: names[quantity] });
-      const checks: [Quantity, number][] = [
-        ['frequency', frequencyHz],
-        ['vin', vinVolts],
-        ['vout', voutVolts],
-        ['phase', phaseDeg],
-        ['floor', floorVolts],
-      ];
-      for (const [quantity, value] of checks) {
-        if (!Number.isFinite(value)) throw new EngineInputError(`${functionName}: ${value} is not a finite number`, at(quantity));
-      }
-      if (!(frequencyHz > 0)) throw new EngineInputError(`${functionName}: frequency must be positive, got ${frequencyHz}`, at('frequency'));
-      if (!(vinVolts > 0)) throw new EngineInputError(`${functionName}: drive amplitude must be positive, got ${vinVolts}`, at('vin'));
-      if (floorVolts < 0) throw new EngineInputError(`${functionName}: noise floor cannot be negative, got ${floorVolts}`, at('floor'));
+      // In this order, so the first bad value of a row is the one named.
+      requireFinite('frequency', frequencyHz, line);
+      requireFinite('vin', vinVolts, line);
+      requireFinite('vout', voutVolts, line);
+      requireFinite('phase', phaseDeg, line);
+      requireFinite('floor', floorVolts, line);
+      if (!(frequencyHz > 0)) throw new EngineInputError(`${functionName}: frequency must be positive, got ${frequencyHz}`, at('frequency', line));
+      if (!(vinVolts > 0)) throw new EngineInputError(`${functionName}: drive amplitude must be positive, got ${vinVolts}`, at('vin', line));
+      if (floorVolts < 0) throw new EngineInputError(`${functionName}: noise floor cannot be negative, got ${floorVolts}`, at('floor', line));
       if (voutVolts < 0 || (voutVolts === 0 && !(floorVolts > 0))) {
         throw new EngineInputError(
           `${functionName}: output amplitude must be positive, got ${voutVolts}` +
             (voutVolts === 0 ? ` (a zero reading is accepted only with a positive ${names.floor} on the same row)` : ''),
-          at('vout'),
+          at('vout', line),
         );
       }
       frequencies.push(frequencyHz);
@@ -258,30 +266,33 @@ export function createSweepAccumulator(options: SweepAccumulatorOptions): SweepA
       if (frequencies.length === 1) {
         throw new EngineInputError(`${functionName}: the sweep has a single row; a sweep needs at least 2 frequencies`, { file, row: lines[0] });
       }
+      const byFrequencyThenLine = (a: number, b: number) => frequencies[a] - frequencies[b] || lines[a] - lines[b];
       const order = frequencies.map((_, index) => index);
-      order.sort((a, b) => frequencies[a] - frequencies[b] || lines[a] - lines[b]);
+      // Readings read back from the database arrive in this order already, and the sort is
+      // stable: it would leave them as they are. Checking is O(n), sorting 100,000 is not.
+      if (!isSortedBy(order, byFrequencyThenLine)) order.sort(byFrequencyThenLine);
 
-      const groups: number[][] = [];
-      for (const index of order) {
-        const last = groups[groups.length - 1];
-        if (last && frequencies[last[0]] === frequencies[index]) {
+      // Each point is a run of equal frequencies in `order`, starting at runStarts[point].
+      const runStarts: number[] = [];
+      for (let position = 0; position < order.length; position++) {
+        const index = order[position];
+        if (position > 0 && frequencies[order[position - 1]] === frequencies[index]) {
           if (!options.averageRepeats) {
             throw new EngineInputError(
-              `${functionName}: frequency ${frequencies[index]} Hz is repeated (also on line ${lines[last[0]]}); ` +
+              `${functionName}: frequency ${frequencies[index]} Hz is repeated (also on line ${lines[order[runStarts[runStarts.length - 1]]]}); ` +
                 'remove the repeat or ask for repeats to be averaged',
               { file, row: lines[index], column: names.frequency },
             );
           }
-          last.push(index);
         } else {
-          groups.push([index]);
+          runStarts.push(position);
         }
       }
-      if (groups.length < 2) {
+      if (runStarts.length < 2) {
         throw new EngineInputError(`${functionName}: after averaging repeats the sweep has a single frequency; at least 2 are needed`, { file, row: lines[0] });
       }
 
-      const count = groups.length;
+      const count = runStarts.length;
       const sweep: Sweep = {
         file,
         frequencyHz: new Float64Array(count),
@@ -293,31 +304,38 @@ export function createSweepAccumulator(options: SweepAccumulatorOptions): SweepA
         lineNumber: new Int32Array(count),
         repeatCount: new Int32Array(count),
       };
-      groups.forEach((group, point) => {
+      for (let point = 0; point < count; point++) {
+        const start = runStarts[point];
+        const end = point + 1 < count ? runStarts[point + 1] : order.length;
+        const size = end - start;
+        // The circular mean of phases is needed only where there are phases to average.
+        const averagePhase = sweep.phaseDeg !== null && size > 1;
         let vin = 0;
         let vout = 0;
         let floor = 0;
         let sine = 0;
         let cosine = 0;
         let firstLine = Infinity;
-        for (const index of group) {
+        for (let position = start; position < end; position++) {
+          const index = order[position];
           vin += vins[index];
           vout += vouts[index];
           floor += floors[index];
-          sine += Math.sin((phases[index] * Math.PI) / 180);
-          cosine += Math.cos((phases[index] * Math.PI) / 180);
+          if (averagePhase) {
+            sine += Math.sin((phases[index] * Math.PI) / 180);
+            cosine += Math.cos((phases[index] * Math.PI) / 180);
+          }
           firstLine = Math.min(firstLine, lines[index]);
         }
-        const size = group.length;
-        sweep.frequencyHz[point] = frequencies[group[0]];
+        sweep.frequencyHz[point] = frequencies[order[start]];
         sweep.vinVolts[point] = vin / size;
         sweep.voutVolts[point] = vout / size;
         sweep.gain[point] = vout / vin;
-        if (sweep.phaseDeg) sweep.phaseDeg[point] = size === 1 ? phases[group[0]] : (Math.atan2(sine, cosine) * 180) / Math.PI;
+        if (sweep.phaseDeg) sweep.phaseDeg[point] = averagePhase ? (Math.atan2(sine, cosine) * 180) / Math.PI : phases[order[start]];
         if (sweep.floorVolts) sweep.floorVolts[point] = floor / size;
         sweep.lineNumber[point] = firstLine;
         sweep.repeatCount[point] = size;
-      });
+      }
       return sweep;
     },
   };

@@ -98,6 +98,37 @@ describe('sweepFromReadings', () => {
     expect(Array.from(sweep.repeatCount)).toEqual([1, 2]);
   });
 
+  it('gives the same sweep whether the readings arrive sorted or not', () => {
+    // Invented readings with repeats: one sweep of 1 kHz and 10 kHz measured twice, the repeat
+    // written with lower line numbers (as a second stored sweep of the same mode can be).
+    const sorted = [
+      { line: 1, frequencyHz: 100, vinVolts: 1, voutVolts: 1e-4, phaseDeg: 170 },
+      { line: 2, frequencyHz: 1000, vinVolts: 1, voutVolts: 2e-4, phaseDeg: 179 },
+      { line: 12, frequencyHz: 1000, vinVolts: 1.1, voutVolts: 4e-4, phaseDeg: -179 },
+      { line: 3, frequencyHz: 10_000, vinVolts: 1, voutVolts: 3e-4, phaseDeg: 150 },
+      { line: 13, frequencyHz: 10_000, vinVolts: 0.9, voutVolts: 5e-4, phaseDeg: 160 },
+    ];
+    const shuffled = [sorted[4], sorted[2], sorted[0], sorted[3], sorted[1]];
+    const options = { averageRepeats: true, file: 'sweep' };
+    expect(sweepFromReadings(shuffled, options)).toEqual(sweepFromReadings(sorted, options));
+    const sweep = sweepFromReadings(sorted, options);
+    expect(Array.from(sweep.repeatCount)).toEqual([1, 2, 2]);
+    expect(Array.from(sweep.lineNumber)).toEqual([1, 2, 3]);
+    // The circular mean of 179° and −179° is 180° (by hand: both lie 1° from it), not their arithmetic mean 0°.
+    expect(Math.abs(Math.abs(sweep.phaseDeg![1]) - 180)).toBeLessThan(conversionTolerance);
+  });
+
+  it('refuses a repeated frequency unless asked to average, naming both lines', () => {
+    const readings = [
+      { line: 4, frequencyHz: 1000, vinVolts: 1, voutVolts: 2e-4 },
+      { line: 2, frequencyHz: 100, vinVolts: 1, voutVolts: 1e-4 },
+      { line: 3, frequencyHz: 1000, vinVolts: 1, voutVolts: 4e-4 },
+    ];
+    expect(() => sweepFromReadings(readings, { file: 'sweep' })).toThrowError(
+      'sweep, row 4, column "frequency_hz": sweepFromReadings: frequency 1000 Hz is repeated (also on line 3); remove the repeat or ask for repeats to be averaged',
+    );
+  });
+
   it('refuses a non-finite reading, naming its line', () => {
     const accumulator = createSweepAccumulator({ hasPhase: false, hasFloor: false, file: 'stream', functionName: 'analysis' });
     expect(() => accumulator.add({ line: 9, frequencyHz: Number.NaN, vinVolts: 1, voutVolts: 1 })).toThrow('stream, row 9, column "frequency_hz": analysis: NaN is not a finite number');
