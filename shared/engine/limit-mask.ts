@@ -147,9 +147,58 @@ export function decideAgainstLimit(valueDb: number, limitDb: number, guardBandDb
   return 'indeterminate';
 }
 
+/** A judged point reduced to what a stored analysis keeps (see {@link limitMaskVerdicts}). */
+export interface LimitVerdict {
+  frequencyHz: number;
+  cmrrDb: number;
+  /** The point's lowerBound flag, false when it had none. */
+  lowerBound: boolean;
+  limitDb: number | null;
+  marginDb: number | null;
+  outcome: LimitOutcome;
+}
+
+/** Every point judged, then shaped by `toResult`: the walk both checks below share. */
+function judgeAgainstLimitMask<T>(
+  points: readonly CmrrPointToJudge[],
+  mask: LimitMask,
+  guardBandDb: number,
+  functionName: string,
+  toResult: (point: CmrrPointToJudge, limitDb: number | null, marginDb: number | null, outcome: LimitOutcome) => T,
+): { results: T[]; overall: LimitOutcome; counts: Record<LimitOutcome, number> } {
+  validateLimitMask(mask, functionName);
+  if (!Number.isFinite(guardBandDb) || guardBandDb < 0) {
+    throw new EngineInputError(`${functionName} requires a finite guard band of at least 0 dB, got ${guardBandDb}`, {
+      field: 'guardBandDb',
+    });
+  }
+  const counts: Record<LimitOutcome, number> = { pass: 0, fail: 0, indeterminate: 0, 'outside-mask': 0 };
+  const results = points.map((point, index): T => {
+    const row = index + 1;
+    if (!Number.isFinite(point.frequencyHz) || point.frequencyHz <= 0) {
+      throw new EngineInputError(`${functionName}: point ${row} needs a finite frequency above 0 Hz, got ${point.frequencyHz}`, {
+        row,
+        field: 'frequencyHz',
+      });
+    }
+    if (Number.isNaN(point.cmrrDb)) {
+      throw new EngineInputError(`${functionName}: point ${row} has no CMRR value (NaN)`, { row, field: 'cmrrDb' });
+    }
+    const limitDb = limitAt(mask.points, point.frequencyHz);
+    const outcome: LimitOutcome =
+      limitDb === null ? 'outside-mask' : decideAgainstLimit(point.cmrrDb, limitDb, guardBandDb, point.lowerBound ?? false);
+    counts[outcome]++;
+    return toResult(point, limitDb, limitDb === null ? null : point.cmrrDb - limitDb, outcome);
+  });
+  const overall: LimitOutcome =
+    counts.fail > 0 ? 'fail' : counts.indeterminate > 0 ? 'indeterminate' : counts.pass > 0 ? 'pass' : 'outside-mask';
+  return { results, overall, counts };
+}
+
 /**
  * Judges every point against a mask (see {@link decideAgainstLimit}) and gives
- * the sweep's overall verdict. O(points · mask corners).
+ * the sweep's overall verdict. Each decision is a copy of its point (every field
+ * it has) with the limit, margin and outcome added. O(points · mask corners).
  *
  * @param points frequencies (Hz, > 0), CMRR values (dB) and lower-bound flags
  * @param mask the limit mask
@@ -158,31 +207,42 @@ export function decideAgainstLimit(valueDb: number, limitDb: number, guardBandDb
  * @example checkAgainstLimitMask([{ frequencyHz: 100, cmrrDb: 85 }], mask80Flat).overall // → 'pass'
  */
 export function checkAgainstLimitMask(points: readonly CmrrPointToJudge[], mask: LimitMask, guardBandDb = 0): LimitCheckResult {
-  validateLimitMask(mask, 'checkAgainstLimitMask');
-  if (!Number.isFinite(guardBandDb) || guardBandDb < 0) {
-    throw new EngineInputError(`checkAgainstLimitMask requires a finite guard band of at least 0 dB, got ${guardBandDb}`, {
-      field: 'guardBandDb',
-    });
-  }
-  const counts: Record<LimitOutcome, number> = { pass: 0, fail: 0, indeterminate: 0, 'outside-mask': 0 };
-  const decisions = points.map((point, index): LimitDecision => {
-    const row = index + 1;
-    if (!Number.isFinite(point.frequencyHz) || point.frequencyHz <= 0) {
-      throw new EngineInputError(`checkAgainstLimitMask: point ${row} needs a finite frequency above 0 Hz, got ${point.frequencyHz}`, {
-        row,
-        field: 'frequencyHz',
-      });
-    }
-    if (Number.isNaN(point.cmrrDb)) {
-      throw new EngineInputError(`checkAgainstLimitMask: point ${row} has no CMRR value (NaN)`, { row, field: 'cmrrDb' });
-    }
-    const limitDb = limitAt(mask.points, point.frequencyHz);
-    const outcome: LimitOutcome =
-      limitDb === null ? 'outside-mask' : decideAgainstLimit(point.cmrrDb, limitDb, guardBandDb, point.lowerBound ?? false);
-    counts[outcome]++;
-    return { ...point, limitDb, marginDb: limitDb === null ? null : point.cmrrDb - limitDb, outcome };
-  });
-  const overall: LimitOutcome =
-    counts.fail > 0 ? 'fail' : counts.indeterminate > 0 ? 'indeterminate' : counts.pass > 0 ? 'pass' : 'outside-mask';
-  return { decisions, overall, counts };
+  const { results, overall, counts } = judgeAgainstLimitMask(
+    points,
+    mask,
+    guardBandDb,
+    'checkAgainstLimitMask',
+    (point, limitDb, marginDb, outcome): LimitDecision => ({ ...point, limitDb, marginDb, outcome }),
+  );
+  return { decisions: results, overall, counts };
+}
+
+/**
+ * The same judgement as {@link checkAgainstLimitMask}, giving each point only its
+ * frequency, CMRR, lower-bound flag, limit, margin and outcome instead of a copy of
+ * the whole point: for a session of 100,000 CMRR points, making those copies was
+ * most of the check's time. O(points · mask corners).
+ *
+ * @param points frequencies (Hz, > 0), CMRR values (dB) and lower-bound flags
+ * @param mask the limit mask
+ * @param guardBandDb guard band w, dB (≥ 0, default 0)
+ * @param functionName name at the start of error messages
+ * @throws EngineInputError as checkAgainstLimitMask does
+ * @example limitMaskVerdicts([{ frequencyHz: 100, cmrrDb: 85 }], mask80Flat).verdicts[0].marginDb // → 5
+ */
+export function limitMaskVerdicts(
+  points: readonly CmrrPointToJudge[],
+  mask: LimitMask,
+  guardBandDb = 0,
+  functionName = 'limitMaskVerdicts',
+): { verdicts: LimitVerdict[]; overall: LimitOutcome; counts: Record<LimitOutcome, number> } {
+  const { results, overall, counts } = judgeAgainstLimitMask(points, mask, guardBandDb, functionName, (point, limitDb, marginDb, outcome) => ({
+    frequencyHz: point.frequencyHz,
+    cmrrDb: point.cmrrDb,
+    lowerBound: point.lowerBound ?? false,
+    limitDb,
+    marginDb,
+    outcome,
+  }));
+  return { verdicts: results, overall, counts };
 }

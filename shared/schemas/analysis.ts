@@ -1,16 +1,9 @@
 // What GET /api/sessions/:id/analysis returns (and what live viewers receive as refits).
 import { z } from 'zod';
-import type { CmrrPoint, FrequencyFit, LimitOutcome } from '../engine';
+import type { CmrrPoint, FrequencyFit, LimitOutcome, LimitVerdict } from '../engine';
 import type { PredictedPoint } from '../design-prediction';
 
-export interface LimitVerdict {
-  frequencyHz: number;
-  cmrrDb: number;
-  lowerBound: boolean;
-  limitDb: number | null;
-  marginDb: number | null;
-  outcome: LimitOutcome;
-}
+export type { LimitVerdict };
 
 export interface SessionAnalysis {
   sessionId: string;

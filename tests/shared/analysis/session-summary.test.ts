@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
-import { EngineInputError, checkAgainstLimitMask, fitCmrrFrequencyResponse, logSpacedFrequencies, predictDifferenceAmplifier } from '../../../shared/engine';
+import { EngineInputError, fitCmrrFrequencyResponse, limitMaskVerdicts, logSpacedFrequencies, predictDifferenceAmplifier } from '../../../shared/engine';
 import type { SessionAnalysis } from '../../../shared/schemas/analysis';
 import { compareSessionsAt, summariseSession } from '../../../shared/analysis';
 import { differenceCircuit, point, pointsFromPrediction } from './fixtures';
 
 const MASK = { points: [{ frequencyHz: 10, minimumCmrrDb: 80 }, { frequencyHz: 20_000, minimumCmrrDb: 60 }] };
 
+/** An analysis of `points` judged as the server judges them (server/analysis/session-analysis.ts). */
 function analysisOf(points: ReturnType<typeof point>[], guardBandDb = 0): SessionAnalysis {
-  const check = checkAgainstLimitMask(points, MASK, guardBandDb);
+  const check = limitMaskVerdicts(points, MASK, guardBandDb);
   return {
     sessionId: 'session-1',
     status: 'complete',
@@ -20,14 +21,7 @@ function analysisOf(points: ReturnType<typeof point>[], guardBandDb = 0): Sessio
     limits: {
       guardBandDb,
       overall: check.overall,
-      verdicts: check.decisions.map((decision) => ({
-        frequencyHz: decision.frequencyHz,
-        cmrrDb: decision.cmrrDb,
-        lowerBound: decision.lowerBound ?? false,
-        limitDb: decision.limitDb,
-        marginDb: decision.marginDb,
-        outcome: decision.outcome,
-      })),
+      verdicts: check.verdicts,
     },
     computedAt: '2025-01-01T00:00:00.000Z',
   };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { EngineInputError } from '../../../shared/engine/errors';
-import { checkAgainstLimitMask, decideAgainstLimit, evaluateLimitMask, type LimitMask } from '../../../shared/engine/limit-mask';
+import { checkAgainstLimitMask, decideAgainstLimit, evaluateLimitMask, limitMaskVerdicts, type LimitMask } from '../../../shared/engine/limit-mask';
 
 /** Interpolation in log-f involves one logarithm ratio: a few ulps. */
 const INTERPOLATION_TOLERANCE_DB = 1e-12;
@@ -111,5 +111,69 @@ describe('checkAgainstLimitMask', () => {
     expect(() => checkAgainstLimitMask([{ frequencyHz: 100, cmrrDb: Number.NaN }], mask)).toThrowError(/field "cmrrDb"/);
     expect(() => checkAgainstLimitMask([], { points: [mask.points[2], mask.points[0]] })).toThrowError(/increase strictly/);
     expect(() => checkAgainstLimitMask([], mask, Number.NaN)).toThrowError(/guard band/);
+  });
+});
+
+describe('limitMaskVerdicts', () => {
+  // Points on both sides of the mask, at a corner, between corners, a lower bound above and below
+  // its limit, a point with no lowerBound field and one carrying other fields (as CMRR points do).
+  // Invented inputs; the expected verdicts are checkAgainstLimitMask's, which the tests above pin.
+  const points = [
+    { frequencyHz: 5, cmrrDb: 95 },
+    { frequencyHz: 10, cmrrDb: 90.5, lowerBound: false },
+    { frequencyHz: 100, cmrrDb: 85, lowerBound: false, ad: 10, acm: 5.6e-4, commonModeLine: 7 },
+    { frequencyHz: 1000, cmrrDb: 60, lowerBound: true },
+    { frequencyHz: 10_000, cmrrDb: 55.5 },
+    { frequencyHz: 50_000, cmrrDb: 60, lowerBound: true },
+    { frequencyHz: 100_000, cmrrDb: 30 },
+    { frequencyHz: 200_000, cmrrDb: 20 },
+  ];
+
+  it('gives checkAgainstLimitMask’s decisions, reduced to the judged fields', () => {
+    for (const guardBandDb of [0, 1, 6]) {
+      const check = checkAgainstLimitMask(points, mask, guardBandDb);
+      const lean = limitMaskVerdicts(points, mask, guardBandDb);
+      expect(lean.verdicts).toEqual(
+        check.decisions.map((decision) => ({
+          frequencyHz: decision.frequencyHz,
+          cmrrDb: decision.cmrrDb,
+          lowerBound: decision.lowerBound ?? false,
+          limitDb: decision.limitDb,
+          marginDb: decision.marginDb,
+          outcome: decision.outcome,
+        })),
+      );
+      expect(lean.overall).toBe(check.overall);
+      expect(lean.counts).toEqual(check.counts);
+    }
+  });
+
+  it('keeps no other field of a point and always says whether it is a lower bound', () => {
+    const { verdicts } = limitMaskVerdicts(points, mask, 1);
+    expect(Object.keys(verdicts[2])).toEqual(['frequencyHz', 'cmrrDb', 'lowerBound', 'limitDb', 'marginDb', 'outcome']);
+    expect(verdicts[0].lowerBound).toBe(false);
+  });
+
+  it('refuses what checkAgainstLimitMask refuses, with its message when given its name', () => {
+    const badInputs: [typeof points, LimitMask, number][] = [
+      [[{ frequencyHz: 100, cmrrDb: 80 }, { frequencyHz: 0, cmrrDb: 80 }], mask, 0],
+      [[{ frequencyHz: 100, cmrrDb: Number.NaN }], mask, 0],
+      [[], { points: [mask.points[2], mask.points[0]] }, 0],
+      [[], { points: [] }, 0],
+      [[], mask, Number.NaN],
+      [[], mask, -1],
+    ];
+    for (const [badPoints, badMask, guardBandDb] of badInputs) {
+      let expected: unknown;
+      try {
+        checkAgainstLimitMask(badPoints, badMask, guardBandDb);
+      } catch (error) {
+        expected = error;
+      }
+      expect(expected).toBeInstanceOf(EngineInputError);
+      const message = (expected as EngineInputError).message;
+      expect(() => limitMaskVerdicts(badPoints, badMask, guardBandDb, 'checkAgainstLimitMask')).toThrowError(message);
+      expect(() => limitMaskVerdicts(badPoints, badMask, guardBandDb)).toThrowError(message.replaceAll('checkAgainstLimitMask', 'limitMaskVerdicts'));
+    }
   });
 });
