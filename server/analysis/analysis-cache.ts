@@ -7,6 +7,7 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { SessionAnalysis } from '../../shared/schemas/analysis';
 import type { Circuit, LimitMaskData } from '../../shared/schemas/designs';
+import type { Database } from '../db';
 import { analyzeSession } from './session-analysis';
 
 export interface AnalysedSession {
@@ -18,7 +19,7 @@ export interface AnalysedSession {
 
 export interface AnalysisCache {
   /** The session's analysis: the kept one while its data version holds, else a fresh one (kept). */
-  analyse(sequelize: Sequelize, session: AnalysedSession, now: Date): Promise<SessionAnalysis>;
+  analyse(database: Database, session: AnalysedSession, now: Date): Promise<SessionAnalysis>;
   /** How many analyses are kept and their CMRR points in all (for tests and logs). */
   size(): { analyses: number; points: number };
 }
@@ -71,8 +72,8 @@ export function createAnalysisCache(options: AnalysisCacheOptions = {}): Analysi
   };
 
   return {
-    async analyse(sequelize, session, now) {
-      const version = await sessionDataVersion(sequelize, session);
+    async analyse(database, session, now) {
+      const version = await sessionDataVersion(database.sequelize, session);
       const entry = kept.get(session.id);
       if (entry && entry.version === version) {
         kept.delete(session.id);
@@ -80,7 +81,7 @@ export function createAnalysisCache(options: AnalysisCacheOptions = {}): Analysi
         return entry.analysis;
       }
       drop(session.id);
-      const computing = analyzeSession(sequelize, { id: session.id, circuit: session.circuit, limitMask: session.limitMask }, now);
+      const computing = analyzeSession(database, { id: session.id, circuit: session.circuit, limitMask: session.limitMask }, now);
       const fresh: Kept = { version, analysis: computing, points: 0 };
       kept.set(session.id, fresh);
       try {

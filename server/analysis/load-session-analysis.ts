@@ -8,7 +8,7 @@ export async function loadSessionAnalysis(context: Pick<AppContext, 'database' |
   if (!session || !session.designRevision) return null;
   const revision = session.designRevision;
   return context.analyses.analyse(
-    context.database.sequelize,
+    context.database,
     { id: session.id, designRevisionId: revision.id, circuit: revision.circuit, limitMask: revision.limitMask },
     context.now(),
   );

@@ -1,7 +1,7 @@
 // Every unit measured against one design revision, each with the engine's analysis.
-import type { Sequelize } from 'sequelize';
 import type { SessionAnalysis } from '../../shared/schemas/analysis';
 import type { Circuit, LimitMaskData } from '../../shared/schemas/designs';
+import type { Database } from '../db';
 import { BenchSession, User } from '../models';
 import type { AnalysisCache } from './analysis-cache';
 
@@ -16,7 +16,7 @@ export interface LotUnit {
 
 /** The latest session of each unit serial against the revision (a unit measured twice counts once). */
 export async function loadLot(
-  sequelize: Sequelize,
+  database: Database,
   analyses: AnalysisCache,
   revision: { id: string; circuit: Circuit; limitMask: LimitMaskData },
   now: Date,
@@ -36,7 +36,7 @@ export async function loadLot(
       measuredAt: session.measuredAt.toISOString(),
       status: session.status,
       operator: session.operator?.name ?? '',
-      analysis: await analyses.analyse(sequelize, { id: session.id, designRevisionId: revision.id, circuit: revision.circuit, limitMask: revision.limitMask }, now),
+      analysis: await analyses.analyse(database, { id: session.id, designRevisionId: revision.id, circuit: revision.circuit, limitMask: revision.limitMask }, now),
     });
   }
   return units;

@@ -1,41 +1,32 @@
 // The engine's analysis of one bench session: measured points paired and fitted, the design
 // revision's prediction at the same frequencies, and the limit-mask verdicts.
-import type { Sequelize } from 'sequelize';
 import { predictDesign } from '../../shared/design-prediction';
 import {
-  checkAgainstLimitMask,
   EngineInputError,
   fitCmrrFrequencyResponse,
+  limitMaskVerdicts,
   pairCmrrPoints,
   sweepFromReadings,
   type Sweep,
+  type SweepReading,
 } from '../../shared/engine';
 import type { SessionAnalysis } from '../../shared/schemas/analysis';
 import type { Circuit, LimitMaskData } from '../../shared/schemas/designs';
-import { sessionReadings, type SessionReadings } from '../operations/sweep-points';
+import type { Database } from '../db';
+import { sessionReadings } from '../operations/sweep-points';
 
-function toSweep(readings: SessionReadings[], label: string): Sweep {
+function toSweep(readings: SweepReading[], label: string): Sweep {
   // Several sweeps of one mode (a band measured in two parts, a repeat) are merged; a frequency
   // measured more than once is averaged.
-  return sweepFromReadings(
-    readings.map((reading) => ({
-      line: reading.sequence,
-      frequencyHz: reading.frequencyHz,
-      vinVolts: reading.vinV,
-      voutVolts: reading.voutV,
-      phaseDeg: reading.phaseDeg,
-      floorVolts: reading.floorV,
-    })),
-    { file: `${label} sweep`, averageRepeats: true, functionName: 'analysis' },
-  );
+  return sweepFromReadings(readings, { file: `${label} sweep`, averageRepeats: true, functionName: 'analysis' });
 }
 
 export async function analyzeSession(
-  sequelize: Sequelize,
+  database: Pick<Database, 'pool'>,
   session: { id: string; circuit: Circuit; limitMask: LimitMaskData },
   now: Date,
 ): Promise<SessionAnalysis> {
-  const readings = await sessionReadings(sequelize, session.id);
+  const readings = await sessionReadings(database.pool, session.id);
   const base: SessionAnalysis = {
     sessionId: session.id,
     status: 'incomplete',
@@ -60,7 +51,8 @@ export async function analyzeSession(
     const fit = fitCmrrFrequencyResponse(points);
     const frequencies = points.map((point) => point.frequencyHz);
     const prediction = predictDesign(session.circuit, frequencies);
-    const check = checkAgainstLimitMask(points, { points: session.limitMask.points }, session.limitMask.guardBandDb);
+    // Its messages name checkAgainstLimitMask, as the analysis's always have.
+    const check = limitMaskVerdicts(points, { points: session.limitMask.points }, session.limitMask.guardBandDb, 'checkAgainstLimitMask');
     return {
       ...base,
       status: 'complete',
@@ -71,14 +63,7 @@ export async function analyzeSession(
       limits: {
         guardBandDb: session.limitMask.guardBandDb,
         overall: check.overall,
-        verdicts: check.decisions.map((decision) => ({
-          frequencyHz: decision.frequencyHz,
-          cmrrDb: decision.cmrrDb,
-          lowerBound: decision.lowerBound ?? false,
-          limitDb: decision.limitDb,
-          marginDb: decision.marginDb,
-          outcome: decision.outcome,
-        })),
+        verdicts: check.verdicts,
       },
     };
   } catch (error) {

@@ -22,7 +22,8 @@ afterAll(async () => {
   await app?.close();
 });
 
-const sequelize = () => app.server.context.database.sequelize;
+const database = () => app.server.context.database;
+const sequelize = () => database().sequelize;
 
 async function analysedSession(unitSerial: string): Promise<AnalysedSession> {
   const session = await BenchSession.findOne({ where: { unitSerial }, include: [{ model: DesignRevision, as: 'designRevision' }] });
@@ -70,11 +71,11 @@ describe('createAnalysisCache', () => {
   it('serves the kept analysis while the data are unchanged, equal to a fresh one', async () => {
     const cache = createAnalysisCache();
     const session = await analysedSession('HRB204-0007');
-    const first = await cache.analyse(sequelize(), session, new Date('2026-11-01T10:00:00Z'));
-    const second = await cache.analyse(sequelize(), session, new Date('2026-11-01T11:00:00Z'));
+    const first = await cache.analyse(database(), session, new Date('2026-11-01T10:00:00Z'));
+    const second = await cache.analyse(database(), session, new Date('2026-11-01T11:00:00Z'));
     expect(second).toBe(first);
     expect(second.computedAt).toBe('2026-11-01T10:00:00.000Z');
-    const fresh = await analyzeSession(sequelize(), session, new Date('2026-11-01T10:00:00Z'));
+    const fresh = await analyzeSession(database(), session, new Date('2026-11-01T10:00:00Z'));
     expect(second).toEqual(fresh);
     expect(cache.size()).toEqual({ analyses: 1, points: first.points.length });
   });
@@ -82,7 +83,7 @@ describe('createAnalysisCache', () => {
   it('shares one computation between requests that arrive together', async () => {
     const cache = createAnalysisCache();
     const session = await analysedSession('HRB204-0003');
-    const [a, b, c] = await Promise.all([0, 1, 2].map(() => cache.analyse(sequelize(), session, new Date())));
+    const [a, b, c] = await Promise.all([0, 1, 2].map(() => cache.analyse(database(), session, new Date())));
     expect(b).toBe(a);
     expect(c).toBe(a);
   });
@@ -90,13 +91,13 @@ describe('createAnalysisCache', () => {
   it('computes afresh after a new sweep, after points appended to a sweep, and after a sweep is deleted', async () => {
     const cache = createAnalysisCache();
     const { session, sweepIds, technicianId, operator } = await newSession('HRB204-9301');
-    const before = await cache.analyse(sequelize(), session, new Date());
+    const before = await cache.analyse(database(), session, new Date());
     expect(before.status).toBe('complete');
     expect(before.pointCounts).toEqual({ differential: 12, commonMode: 12 });
 
     // Points appended to the common-mode sweep, as a stream does.
     await insertPoints(sequelize(), sweepIds[1], [{ sequence: 13, frequencyHz: 50_000, vinV: 1, voutV: 0.002, phaseDeg: null, floorV: null, sourceLine: null }]);
-    const appended = await cache.analyse(sequelize(), session, new Date());
+    const appended = await cache.analyse(database(), session, new Date());
     expect(appended).not.toBe(before);
     expect(appended.pointCounts).toEqual({ differential: 12, commonMode: 13 });
 
@@ -106,32 +107,32 @@ describe('createAnalysisCache', () => {
       sweeps: [{ mode: 'differential', source: 'upload', sourceName: 'd2.csv', points: [{ sequence: 1, frequencyHz: 50_000, vinV: 1, voutV: 9.9, phaseDeg: null, floorV: null, sourceLine: null }] }],
       createdBy: { id: technicianId },
     });
-    const added = await cache.analyse(sequelize(), session, new Date());
+    const added = await cache.analyse(database(), session, new Date());
     expect(added).not.toBe(appended);
     expect(added.pointCounts).toEqual({ differential: 13, commonMode: 13 });
 
     // The common-mode sweep deleted on record: no CMRR any more.
     await deleteSweep(sequelize(), { sessionId: session.id, sweepId: sweepIds[1], reason: 'wrong fixture', actor: operator, now: new Date() });
-    const deleted = await cache.analyse(sequelize(), session, new Date());
+    const deleted = await cache.analyse(database(), session, new Date());
     expect(deleted.status).toBe('incomplete');
     expect(deleted.pointCounts).toEqual({ differential: 13, commonMode: 0 });
-    expect(await cache.analyse(sequelize(), session, new Date())).toBe(deleted);
+    expect(await cache.analyse(database(), session, new Date())).toBe(deleted);
   });
 
   it('drops the least recently used analyses beyond its point budget', async () => {
     const a = await analysedSession('HRB204-0003');
     const b = await analysedSession('HRB204-0005');
     const c = await analysedSession('HRB204-0006');
-    const probe = await analyzeSession(sequelize(), a, new Date());
+    const probe = await analyzeSession(database(), a, new Date());
     // Room for two demo sessions (each a whole number of points, the same count across the lot).
     const cache = createAnalysisCache({ maximumPoints: 2 * probe.points.length });
-    const keptA = await cache.analyse(sequelize(), a, new Date());
-    const keptB = await cache.analyse(sequelize(), b, new Date());
-    expect(await cache.analyse(sequelize(), a, new Date())).toBe(keptA); // a is now the most recently used
-    await cache.analyse(sequelize(), c, new Date()); // b goes
+    const keptA = await cache.analyse(database(), a, new Date());
+    const keptB = await cache.analyse(database(), b, new Date());
+    expect(await cache.analyse(database(), a, new Date())).toBe(keptA); // a is now the most recently used
+    await cache.analyse(database(), c, new Date()); // b goes
     expect(cache.size().analyses).toBe(2);
-    expect(await cache.analyse(sequelize(), a, new Date())).toBe(keptA);
-    expect(await cache.analyse(sequelize(), b, new Date())).not.toBe(keptB);
+    expect(await cache.analyse(database(), a, new Date())).toBe(keptA);
+    expect(await cache.analyse(database(), b, new Date())).not.toBe(keptB);
   });
 
   it('names each live sweep with its point count and the revision in the data version', async () => {

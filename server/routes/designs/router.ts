@@ -55,7 +55,7 @@ export function designsRouter(context: AppContext): Router {
   const lotOf = async (designId: string, revisionId: string, options: { forPage?: boolean } = {}) => {
     const revision = await DesignRevision.findOne({ where: { id: revisionId, designId }, include: [{ model: Design, as: 'design' }] });
     if (!revision?.design) throw notFound('No such design revision');
-    const units = await loadLot(sequelize, context.analyses, revision, context.now());
+    const units = await loadLot(context.database, context.analyses, revision, context.now());
     const analysed = units.filter((unit) => unit.analysis.status === 'complete' && unit.analysis.points.length > 0);
     const frequencies = lotBandFrequencies(
       analysed.flatMap((unit) => unit.analysis.points.map((point) => point.frequencyHz)),

@@ -21,7 +21,7 @@ export async function loadSessionRecord(context: AppContext, sessionId: string, 
   if (!session?.designRevision?.design) throw notFound('No such bench session');
   const revision = session.designRevision;
   const analysis = await context.analyses.analyse(
-    context.database.sequelize,
+    context.database,
     { id: session.id, designRevisionId: revision.id, circuit: revision.circuit, limitMask: revision.limitMask },
     context.now(),
   );
