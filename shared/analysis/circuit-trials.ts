@@ -255,6 +255,14 @@ export function drawCircuitTrials(circuit: Circuit, options: CircuitTrialOptions
     // The top bits of xoshiro128** output are its strongest.
     for (let trial = 0; trial < trials; trial++) signBits[trial] = signWords[trial] >>> 29;
   }
+  return circuitTrialsOf(circuit, trials, columns, signBits);
+}
+
+/**
+ * Trials from resistor columns in the order of {@link nominalResistors} (R1…R4, then RF1, RF2, RG
+ * for an instrumentation amplifier) and the op-amp sign bits. O(1): the arrays are used as given.
+ */
+export function circuitTrialsOf(circuit: Circuit, trials: number, columns: readonly Float64Array[], signBits: Uint8Array | null): CircuitTrials {
   const instrumentation = circuit.topology === 'instrumentation-amplifier';
   return {
     topology: circuit.topology,

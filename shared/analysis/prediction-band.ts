@@ -5,6 +5,7 @@ import type { Circuit } from '../schemas/designs';
 import { EngineInputError, selectInPlace, validateOpAmpModel, type ToleranceDistribution } from '../engine';
 import {
   circuitOpAmp,
+  circuitTrialsOf,
   drawCircuitTrials,
   fillTrialRatiosSquared,
   nominalResistors,
@@ -228,20 +229,7 @@ export function worstCaseCmrrAtFrequency(circuit: Circuit, frequencyHz: number):
       signBits[trial] = signs;
     }
   }
-  const instrumentation = circuit.topology === 'instrumentation-amplifier';
-  const trials: CircuitTrials = {
-    topology: circuit.topology,
-    trials: count,
-    r1Ohms: columns[0],
-    r2Ohms: columns[1],
-    r3Ohms: columns[2],
-    r4Ohms: columns[3],
-    feedback1Ohms: instrumentation ? columns[4] : null,
-    feedback2Ohms: instrumentation ? columns[5] : null,
-    gainResistorOhms: instrumentation ? columns[6] : null,
-    signBits,
-    opAmp: circuitOpAmp(circuit),
-  };
+  const trials = circuitTrialsOf(circuit, count, columns, signBits);
   const ratioSquared = new Float64Array(count);
   fillTrialRatiosSquared(trials, frequencyHz, ratioSquared);
   let worst = 0;
