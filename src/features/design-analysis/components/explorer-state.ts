@@ -11,12 +11,6 @@ import {
 } from '../../../../shared/schemas/designs';
 import { numberToField, parseEngineeringNumber } from '../../../lib/parse-number';
 
-export const explorerResistorKeys = circuitResistorKeys;
-export type ExplorerResistorKey = CircuitResistorKey;
-export const explorerResistorLabels = circuitResistorLabels;
-/** The resistors of each topology, in schematic order. */
-export const explorerResistorsOf = topologyResistorKeys;
-
 export type OpAmpFieldKey = 'openLoopGainDb' | 'gainBandwidthHz' | 'cmrrDb' | 'cmrrCornerHz';
 export const opAmpFieldKeys: readonly OpAmpFieldKey[] = ['openLoopGainDb', 'gainBandwidthHz', 'cmrrDb', 'cmrrCornerHz'];
 
@@ -25,7 +19,7 @@ export interface ExplorerState {
   toleranceMode: 'all' | 'each';
   /** Percent, as typed (0.1 means 0.1 %). */
   allTolerancePercent: string;
-  eachTolerancePercent: Record<ExplorerResistorKey, string>;
+  eachTolerancePercent: Record<CircuitResistorKey, string>;
   distribution: 'uniform' | 'normal';
   sourceResistance1Ohms: string;
   sourceResistance2Ohms: string;
@@ -39,7 +33,7 @@ export interface ExplorerState {
 /** Where a typed value is wrong; keys are ExplorerState paths (`allTolerancePercent`, `each.r2`, `opAmp.cmrrDb`, `frequencyHz`). */
 export type ExplorerErrors = Partial<Record<string, string>>;
 
-function resistorOf(circuit: Circuit, key: ExplorerResistorKey): { ohms: number; tolerance: number } | null {
+function resistorOf(circuit: Circuit, key: CircuitResistorKey): { ohms: number; tolerance: number } | null {
   const value = (circuit as Record<string, unknown>)[key];
   return value && typeof value === 'object' && 'ohms' in value ? (value as { ohms: number; tolerance: number }) : null;
 }
@@ -52,10 +46,10 @@ const percentText = (fraction: number) => numberToField(fraction * 100);
  * mask (`startFrequencyHz`, from {@link tightestMaskFrequencyHz}).
  */
 export function explorerStateFromCircuit(circuit: Circuit, startFrequencyHz: number): ExplorerState {
-  const keys = explorerResistorsOf[circuit.topology];
+  const keys = topologyResistorKeys[circuit.topology];
   const tolerances = keys.map((key) => resistorOf(circuit, key)?.tolerance ?? 0.001);
   const allSame = tolerances.every((tolerance) => tolerance === tolerances[0]);
-  const each = Object.fromEntries(explorerResistorKeys.map((key) => [key, percentText(resistorOf(circuit, key)?.tolerance ?? tolerances[0])])) as Record<ExplorerResistorKey, string>;
+  const each = Object.fromEntries(circuitResistorKeys.map((key) => [key, percentText(resistorOf(circuit, key)?.tolerance ?? tolerances[0])])) as Record<CircuitResistorKey, string>;
   const opAmp = circuit.opAmp;
   return {
     toleranceMode: allSame ? 'all' : 'each',
@@ -108,7 +102,7 @@ export interface ExplorerCircuitResult {
  */
 export function explorerCircuit(base: Circuit, state: ExplorerState): ExplorerCircuitResult {
   const errors: ExplorerErrors = {};
-  const keys = explorerResistorsOf[base.topology];
+  const keys = topologyResistorKeys[base.topology];
   const shared = state.toleranceMode === 'all' ? readNumber(state.allTolerancePercent, 'allTolerancePercent', 'Tolerance', errors, tolerancePercentCheck('Tolerance')) : Number.NaN;
   const resistors: Record<string, { ohms: number; tolerance: number }> = {};
   for (const key of keys) {
@@ -116,7 +110,7 @@ export function explorerCircuit(base: Circuit, state: ExplorerState): ExplorerCi
     const percent =
       state.toleranceMode === 'all'
         ? shared
-        : readNumber(state.eachTolerancePercent[key], `each.${key}`, `${explorerResistorLabels[key]} tolerance`, errors, tolerancePercentCheck(`${explorerResistorLabels[key]} tolerance`));
+        : readNumber(state.eachTolerancePercent[key], `each.${key}`, `${circuitResistorLabels[key]} tolerance`, errors, tolerancePercentCheck(`${circuitResistorLabels[key]} tolerance`));
     resistors[key] = { ohms: stored.ohms, tolerance: percent / 100 };
   }
   const notNegative = (what: string) => (value: number) => (value >= 0 ? null : `${what} cannot be negative`);
@@ -144,10 +138,10 @@ export function explorerCircuit(base: Circuit, state: ExplorerState): ExplorerCi
 export function explorerChanges(stored: Circuit, explored: Circuit): string[] {
   const changes: string[] = [];
   const percent = (fraction: number) => `${numberToField(fraction * 100)} %`;
-  for (const key of explorerResistorsOf[stored.topology]) {
+  for (const key of topologyResistorKeys[stored.topology]) {
     const before = resistorOf(stored, key)!.tolerance;
     const after = resistorOf(explored, key)!.tolerance;
-    if (before !== after) changes.push(`${explorerResistorLabels[key]} ±${percent(before)} → ±${percent(after)}`);
+    if (before !== after) changes.push(`${circuitResistorLabels[key]} ±${percent(before)} → ±${percent(after)}`);
   }
   if (stored.toleranceDistribution !== explored.toleranceDistribution) changes.push(`distribution ${stored.toleranceDistribution} → ${explored.toleranceDistribution}`);
   if (stored.sourceResistance1Ohms !== explored.sourceResistance1Ohms) changes.push(`Rs1 ${stored.sourceResistance1Ohms} Ω → ${explored.sourceResistance1Ohms} Ω`);

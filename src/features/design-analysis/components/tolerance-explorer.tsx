@@ -1,9 +1,7 @@
 import { memo, useId, type ReactNode } from 'react';
-import type { Topology } from '../../../../shared/schemas/designs';
+import { circuitResistorLabels, topologyResistorKeys, type Topology } from '../../../../shared/schemas/designs';
 import { parseEngineeringNumber } from '../../../lib/parse-number';
 import {
-  explorerResistorLabels,
-  explorerResistorsOf,
   opAmpFieldKeys,
   toleranceSlider,
   type ExplorerErrors,
@@ -30,7 +28,7 @@ type Props = {
 export const ToleranceExplorer = memo(function ToleranceExplorer({ topology, state, errors, onChange, storedOpAmpName }: Props) {
   const set = (changes: Partial<ExplorerState>) => onChange((current) => ({ ...current, ...changes }));
   const sharedPercent = parseEngineeringNumber(state.allTolerancePercent);
-  const resistors = explorerResistorsOf[topology];
+  const resistors = topologyResistorKeys[topology];
   return (
     <section className="rounded-lg border border-trace-300 bg-white p-4">
       <h2 className="text-lg font-semibold text-ink-900">Tolerance explorer</h2>
@@ -72,7 +70,7 @@ export const ToleranceExplorer = memo(function ToleranceExplorer({ topology, sta
             {resistors.map((key) => (
               <SmallField
                 key={key}
-                label={`${explorerResistorLabels[key]} (%)`}
+                label={`${circuitResistorLabels[key]} (%)`}
                 value={state.eachTolerancePercent[key]}
                 error={errors[`each.${key}`]}
                 onChange={(text) => onChange((current) => ({ ...current, eachTolerancePercent: { ...current.eachTolerancePercent, [key]: text } }))}

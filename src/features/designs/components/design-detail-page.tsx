@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useLocation, useNavigate } from 'react-router-dom';
-import { topologyLabels, type Circuit, type DesignDetail, type DesignRevision } from '../../../../shared/schemas/designs';
+import { circuitResistorLabels, topologyLabels, topologyResistorKeys, type Circuit, type DesignDetail, type DesignRevision } from '../../../../shared/schemas/designs';
 import type { Role } from '../../../../shared/schemas/users';
 import { Button } from '../../../components/button';
 import { FormSuccess } from '../../../components/form-error';
@@ -12,7 +12,6 @@ import { revisionName } from '../../../lib/format-revision';
 import { formatDb, formatHz, formatOhms, formatPercent } from '../../../lib/format-number';
 import { useDesign } from '../api/get-design';
 import { DesignForm } from './design-form';
-import { resistorLabels, topologyResistors } from './design-draft';
 
 export default function DesignDetailPage({ designId, role }: { designId: string; role: Role }) {
   const design = useDesign(designId);
@@ -147,11 +146,11 @@ function RevisionCard({ designId, revision, latest }: { designId: string; revisi
               </tr>
             </thead>
             <tbody>
-              {topologyResistors[circuit.topology].map((name) => {
+              {topologyResistorKeys[circuit.topology].map((name) => {
                 const resistor = (circuit as unknown as Record<string, { ohms: number; tolerance: number }>)[name];
                 return (
                   <tr key={name} className="border-t border-ink-100">
-                    <th scope="row" className="py-1 font-medium">{resistorLabels[name]}</th>
+                    <th scope="row" className="py-1 font-medium">{circuitResistorLabels[name]}</th>
                     <td className="tabular py-1 text-right">{formatOhms(resistor.ohms)}</td>
                     <td className="tabular py-1 text-right">±{formatPercent(resistor.tolerance)}</td>
                   </tr>

@@ -13,12 +13,6 @@ import {
 } from '../../../../shared/schemas/designs';
 import { numberToField, parseEngineeringNumber } from '../../../lib/parse-number';
 
-export const resistorNames = circuitResistorKeys;
-export type ResistorName = CircuitResistorKey;
-export const resistorLabels = circuitResistorLabels;
-/** The resistors each topology has, in schematic order. */
-export const topologyResistors = topologyResistorKeys;
-
 export const opAmpFields = ['partNumber', 'openLoopGainDb', 'gainBandwidthHz', 'cmrrDb', 'cmrrCornerHz'] as const;
 export type OpAmpField = (typeof opAmpFields)[number];
 
@@ -28,7 +22,7 @@ export type MaskRowDraft = { key: number; frequencyHz: string; minimumCmrrDb: st
 export type DesignDraft = {
   label: string;
   topology: Topology;
-  resistors: Record<ResistorName, ResistorDraft>;
+  resistors: Record<CircuitResistorKey, ResistorDraft>;
   toleranceDistribution: 'uniform' | 'normal';
   sourceResistance1Ohms: string;
   sourceResistance2Ohms: string;
@@ -50,7 +44,7 @@ export function emptyDesignDraft(): DesignDraft {
   return {
     label: 'A',
     topology: 'difference-amplifier',
-    resistors: Object.fromEntries(resistorNames.map((name) => [name, resistor()])) as Record<ResistorName, ResistorDraft>,
+    resistors: Object.fromEntries(circuitResistorKeys.map((name) => [name, resistor()])) as Record<CircuitResistorKey, ResistorDraft>,
     toleranceDistribution: 'uniform',
     sourceResistance1Ohms: '0',
     sourceResistance2Ohms: '0',
@@ -66,7 +60,7 @@ export function draftFromRevision(revision: DesignRevision): DesignDraft {
   const draft = emptyDesignDraft();
   const circuit = revision.circuit;
   const resistors = { ...draft.resistors };
-  for (const name of topologyResistors[circuit.topology]) {
+  for (const name of topologyResistorKeys[circuit.topology]) {
     const stored = (circuit as Record<string, unknown>)[name] as { ohms: number; tolerance: number };
     resistors[name] = { ohms: numberToField(stored.ohms), tolerancePercent: numberToField(stored.tolerance * 100) };
   }
@@ -111,8 +105,8 @@ export function revisionInputFromDraft(draft: DesignDraft): DraftResult {
   };
 
   const resistors: Record<string, { ohms: number; tolerance: number }> = {};
-  for (const name of topologyResistors[draft.topology]) {
-    const label = resistorLabels[name];
+  for (const name of topologyResistorKeys[draft.topology]) {
+    const label = circuitResistorLabels[name];
     const ohms = number(draft.resistors[name].ohms, `circuit.${name}.ohms`, label);
     const percent = number(draft.resistors[name].tolerancePercent, `circuit.${name}.tolerance`, `${label} tolerance`);
     if (Number.isFinite(percent) && !(percent > 0 && percent < 50)) errors[`circuit.${name}.tolerance`] = `${label} tolerance must be above 0 % and below 50 %`;

@@ -1,5 +1,13 @@
 import { useState, type FormEvent, type ReactNode } from 'react';
-import { topologies, topologyLabels, type DesignDetail, type Topology } from '../../../../shared/schemas/designs';
+import {
+  circuitResistorLabels,
+  topologies,
+  topologyLabels,
+  topologyResistorKeys,
+  type CircuitResistorKey,
+  type DesignDetail,
+  type Topology,
+} from '../../../../shared/schemas/designs';
 import { Button } from '../../../components/button';
 import { SelectField, TextAreaField, TextField } from '../../../components/field';
 import { FormError } from '../../../components/form-error';
@@ -12,13 +20,10 @@ import {
   draftFromRevision,
   emptyDesignDraft,
   maskRow,
-  resistorLabels,
   revisionInputFromDraft,
-  topologyResistors,
   withoutRevisionPrefix,
   type DesignDraft,
   type OpAmpField,
-  type ResistorName,
 } from './design-draft';
 
 /**
@@ -39,7 +44,7 @@ export function DesignForm({ design, onSaved, onCancel }: { design?: DesignDetai
   const errorFor = (key: string) => clientErrors[key] ?? serverErrors[key];
 
   const update = (changes: Partial<DesignDraft>) => setDraft((current) => ({ ...current, ...changes }));
-  const setResistor = (resistor: ResistorName, part: 'ohms' | 'tolerancePercent', value: string) =>
+  const setResistor = (resistor: CircuitResistorKey, part: 'ohms' | 'tolerancePercent', value: string) =>
     setDraft((current) => ({ ...current, resistors: { ...current.resistors, [resistor]: { ...current.resistors[resistor], [part]: value } } }));
   const setOpAmp = (field: OpAmpField, value: string) => setDraft((current) => ({ ...current, opAmp: { ...current.opAmp, [field]: value } }));
   const setMask = (key: number, part: 'frequencyHz' | 'minimumCmrrDb', value: string) =>
@@ -76,7 +81,7 @@ export function DesignForm({ design, onSaved, onCancel }: { design?: DesignDetai
   }
 
   const title = design ? `New revision of ${design.name}` : 'Create a design';
-  const resistors = topologyResistors[draft.topology];
+  const resistors = topologyResistorKeys[draft.topology];
   const maskMessage = errorFor('limitMask.points') ?? errorFor('limitMask');
 
   return (
@@ -112,7 +117,7 @@ export function DesignForm({ design, onSaved, onCancel }: { design?: DesignDetai
             {resistors.map((resistor) => (
               <div key={resistor} className="grid grid-cols-[1fr_6.5rem] gap-2">
                 <TextField
-                  label={`${resistorLabels[resistor]} (Ω)`}
+                  label={`${circuitResistorLabels[resistor]} (Ω)`}
                   inputMode="decimal"
                   className="font-mono"
                   value={draft.resistors[resistor].ohms}
@@ -120,8 +125,8 @@ export function DesignForm({ design, onSaved, onCancel }: { design?: DesignDetai
                   error={errorFor(`circuit.${resistor}.ohms`)}
                 />
                 <TextField
-                  label={`${resistorLabels[resistor]} tol. (%)`}
-                  aria-label={`${resistorLabels[resistor]} tolerance (%)`}
+                  label={`${circuitResistorLabels[resistor]} tol. (%)`}
+                  aria-label={`${circuitResistorLabels[resistor]} tolerance (%)`}
                   inputMode="decimal"
                   className="font-mono"
                   value={draft.resistors[resistor].tolerancePercent}
