@@ -52,7 +52,7 @@ export function AnalysisPointsTable({ sessionId, computedAt, pointCount }: { ses
       {open && (
         <div className="space-y-2 px-4 pb-3">
           <label className="flex flex-wrap items-center gap-2 text-[0.9375rem] text-ink-700">
-            Show
+            Points listed
             <select
               className="rounded-md border border-ink-300 bg-white px-2 py-1 text-ink-900"
               value={query.outcome}
