@@ -32,6 +32,8 @@ export default function SessionCharts(props: SessionChartsProps) {
   const presentGroups = new Set<TraceGroup>();
   cmrrSeries.forEach((entry, index) => props.cmrr.present[index] && presentGroups.add(entry.group));
   gainSeries.forEach((entry, index) => props.gains.present[index] && presentGroups.add(entry.group));
+  // What both charts share: data version, hidden groups, cursor and zoom, the note while pending.
+  const shared = { version: props.version, hidden: props.hidden, syncKey: props.syncKey, placeholder: props.pending ? 'Analysing the sweeps…' : undefined };
   const bands = cmrrBands.map((band) => ({ lowerKey: band.lowerKey, upperKey: band.upperKey, fill: bandFills[band.role] }));
   return (
     <div className="space-y-4">
@@ -58,30 +60,24 @@ export default function SessionCharts(props: SessionChartsProps) {
       <LogFrequencyChart
         title="Common-mode rejection ratio"
         description="CMRR in dB against frequency on a logarithmic axis: measured points and lower bounds, the fit, the design's prediction with its bands, and the limit mask"
+        {...shared}
         fixed={cmrrSeries}
         chart={props.cmrr}
-        version={props.version}
         yRangeDb={props.prepared.cmrr.yRangeDb}
         yLabel="CMRR (dB)"
         height={320}
         bands={bands}
-        hidden={props.hidden}
-        syncKey={props.syncKey}
-        placeholder={props.pending ? 'Analysing the sweeps…' : undefined}
         onDrawn={(version) => props.onDrawn('cmrr', version)}
       />
       <LogFrequencyChart
         title="Differential and common-mode gain"
         description="Differential gain |Ad| (squares) and common-mode gain |Acm| (circles, floor-limited readings as downward triangles) in dB against frequency, with fitted and predicted curves"
+        {...shared}
         fixed={gainSeries}
         chart={props.gains}
-        version={props.version}
         yRangeDb={props.prepared.gains.yRangeDb}
         yLabel="Gain (dB)"
         height={260}
-        hidden={props.hidden}
-        syncKey={props.syncKey}
-        placeholder={props.pending ? 'Analysing the sweeps…' : undefined}
         onDrawn={(version) => props.onDrawn('gains', version)}
       />
     </div>
