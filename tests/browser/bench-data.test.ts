@@ -1,18 +1,14 @@
-import { spawn } from 'node:child_process';
-import { existsSync } from 'node:fs';
-import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import request from 'supertest';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { predictDifferenceAmplifier } from '../../shared/engine';
-import { artifactsDir, chromiumPath, launchBrowser, screenshot } from '../helpers/browser';
+import { artifactsDir, launchJourneyBrowser, screenshot, signInPage } from '../helpers/browser';
+import { runCli } from '../helpers/cli-runner';
 import { logSpacedHz, testDesignInput } from '../helpers/bench-fixtures';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 // The bench-data journey of issue 4, through the built client in Chromium: start a session,
 // upload a differential sweep with a foreign header through the mapping step, create an access
 // token, and watch the stream client's common-mode sweep arrive live.
-const clientBuilt = existsSync(path.join(process.env.CLIENT_DIR || 'dist/client', 'index.html'));
 const shots = artifactsDir('bench-data');
 const designName = 'Journey bridge HRB-990';
 const instrumentName = 'Journey scope JS-1';
@@ -26,19 +22,12 @@ let app: TestApp;
 let browser: Browser;
 
 beforeAll(async () => {
-  if (!clientBuilt) throw new Error('The client is not built: run the suite with `npm test`, which builds it');
-  if (!existsSync(chromiumPath)) throw new Error(`Chromium is missing at ${chromiumPath}: npm test installs it`);
+  browser = await launchJourneyBrowser();
   app = await startTestApp();
-  browser = await launchBrowser();
 
-  const signedIn = async (email: string) => {
-    const agent = request.agent(app.url).set('Origin', app.origin);
-    await agent.post('/api/auth/sign-in').send({ email, password: 'bench-demo' }).expect(200);
-    return agent;
-  };
-  const designer = await signedIn('designer@rejectra.test');
+  const designer = await app.signedIn('designer@rejectra.test');
   await designer.post('/api/designs').send(testDesignInput(designName)).expect(201);
-  const lead = await signedIn('lead@rejectra.test');
+  const lead = await app.signedIn('lead@rejectra.test');
   await lead
     .post('/api/instruments')
     .send({ name: instrumentName, kind: 'oscilloscope', manufacturer: 'Halden Ridge', model: 'DS-4', serialNumber: 'JS1-0001', calibratedOn: '2026-01-05', calibrationDueOn: '2099-01-05' })
@@ -68,30 +57,17 @@ function foreignDifferentialCsv(): string {
   return ['# HRB990-0001 differential, bench PC 3', 'Freq (kHz);Drive (mV pk);Out (mV pk)', ...rows].join('\n') + '\n';
 }
 
-async function signIn(page: Page, email: string) {
-  await page.goto(`${app.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill('bench-demo');
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
-}
-
-function runStreamClient(args: string[]): Promise<{ code: number | null; output: string }> {
-  return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'stream', ...args], { cwd: process.cwd(), stdio: ['ignore', 'pipe', 'pipe'] });
-    let output = '';
-    child.stdout.on('data', (chunk) => (output += chunk));
-    child.stderr.on('data', (chunk) => (output += chunk));
-    child.on('error', reject);
-    child.on('close', (code) => resolve({ code, output }));
-  });
+/** `rejectra stream …` to its end: its exit code and everything it wrote. */
+async function runStreamClient(args: string[]): Promise<{ code: number | null; output: string }> {
+  const run = await runCli('stream', args);
+  return { code: run.status, output: run.stdout + run.stderr };
 }
 
 describe('bench data in', () => {
   it('lets a technician start a session, map and upload a foreign sweep file, and watch a streamed sweep arrive live', { timeout: 180_000 }, async () => {
     const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
     const tech = await context.newPage();
-    await signIn(tech, 'tech@rejectra.test');
+    await signInPage(tech, app.url, 'tech@rejectra.test');
     await tech.getByRole('link', { name: 'Bench sessions', exact: true }).click();
     await tech.getByRole('link', { name: 'Start a bench session' }).click();
     // The list page has a "Design" filter of its own: act only once the form has replaced it.

@@ -1,14 +1,11 @@
-import { existsSync } from 'node:fs';
-import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { artifactsDir, chromiumPath, launchBrowser, screenshot } from '../helpers/browser';
+import { artifactsDir, launchJourneyBrowser, screenshot, signInPage } from '../helpers/browser';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 // The designer's journey of issue 5 through the built client in Chromium, on the demo lab: open
 // the HRB-204 design's prediction, tighten the tolerance in the explorer and watch the yield
 // rise, ask what tolerance a target needs, then open the rev C lot.
-const clientBuilt = existsSync(path.join(process.env.CLIENT_DIR || 'dist/client', 'index.html'));
 const shots = artifactsDir('design-analysis');
 // Under a loaded machine a worker run or a lot analysis can take seconds; polls wait up to this long.
 const patient = { timeout: 30_000 };
@@ -16,10 +13,8 @@ let app: TestApp;
 let browser: Browser;
 
 beforeAll(async () => {
-  if (!clientBuilt) throw new Error('The client is not built: run the suite with `npm test`, which builds it');
-  if (!existsSync(chromiumPath)) throw new Error(`Chromium is missing at ${chromiumPath}: npm test installs it`);
+  browser = await launchJourneyBrowser();
   app = await startTestApp({ seed: 'demo' });
-  browser = await launchBrowser();
 });
 afterAll(async () => {
   await browser?.close();
@@ -40,10 +35,7 @@ describe('the designer at the design and lot views', () => {
     const page = await context.newPage();
     const pageErrors: string[] = [];
     page.on('pageerror', (error) => pageErrors.push(error.message));
-    await page.goto(`${app.url}/sign-in`);
-    await page.getByLabel('E-mail').fill('designer@rejectra.test');
-    await page.getByLabel('Password').fill('bench-demo');
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInPage(page, app.url, 'designer@rejectra.test');
     await expect.poll(() => page.getByRole('link', { name: 'Designs', exact: true }).count()).toBe(1);
 
     await page.getByRole('link', { name: 'Designs', exact: true }).click();

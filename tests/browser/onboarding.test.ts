@@ -1,21 +1,16 @@
-import { existsSync } from 'node:fs';
-import path from 'node:path';
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { artifactsDir, chromiumPath, launchBrowser, screenshot } from '../helpers/browser';
+import { artifactsDir, launchJourneyBrowser, screenshot } from '../helpers/browser';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 // The onboarding journey from the foundation issue, through the built client in Chromium.
-const clientBuilt = existsSync(path.join(process.env.CLIENT_DIR || 'dist/client', 'index.html'));
 const shots = artifactsDir('onboarding');
 let app: TestApp;
 let browser: Browser;
 
 beforeAll(async () => {
-  if (!clientBuilt) throw new Error('The client is not built: run the suite with `npm test`, which builds it');
-  if (!existsSync(chromiumPath)) throw new Error(`Chromium is missing at ${chromiumPath}: npm test installs it`);
+  browser = await launchJourneyBrowser();
   app = await startTestApp();
-  browser = await launchBrowser();
 });
 afterAll(async () => {
   await browser?.close();

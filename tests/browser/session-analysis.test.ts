@@ -1,19 +1,18 @@
-import { execFileSync, spawn } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { execFileSync } from 'node:child_process';
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { summariseSession } from '../../shared/analysis';
 import type { SessionAnalysis } from '../../shared/schemas/analysis';
 import type { DesignDetail, DesignSummary } from '../../shared/schemas/designs';
-import { artifactsDir, chromiumPath, launchBrowser, screenshot } from '../helpers/browser';
+import { artifactsDir, launchJourneyBrowser, screenshot, signInPage } from '../helpers/browser';
+import { runCli } from '../helpers/cli-runner';
 import { startTestApp, type TestApp } from '../helpers/test-app';
 
 // Issue 5's session journeys through the built client in Chromium, on the demo lab: the designer
 // watches a streamed session arrive and reads its verdict and diagnosis, exports the PDF report
 // from the page, and compares two demo sessions at a chosen frequency.
-const clientBuilt = existsSync(path.join(process.env.CLIENT_DIR || 'dist/client', 'index.html'));
 const shots = artifactsDir('session-analysis');
 const designName = 'LC-Bridge front-end board HRB-204';
 const unitSerial = 'HRB204-0101';
@@ -25,41 +24,20 @@ let sessionId: string;
 let token: string;
 let designer: ReturnType<typeof request.agent>;
 
-async function signedInAgent(email: string) {
-  const agent = request.agent(app.url).set('Origin', app.origin);
-  await agent.post('/api/auth/sign-in').send({ email, password: 'bench-demo' }).expect(200);
-  return agent;
-}
-
-async function signIn(page: Page, email: string) {
-  await page.goto(`${app.url}/sign-in`);
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill('bench-demo');
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
-}
-
-function stream(mode: 'differential' | 'common-mode'): Promise<{ code: number | null; output: string }> {
+/** `rejectra stream --simulate` of 30 points into the journey's session: its exit code and everything it wrote. */
+async function stream(mode: 'differential' | 'common-mode'): Promise<{ code: number | null; output: string }> {
   const args = ['--url', app.url, '--token', token, '--session', sessionId, '--mode', mode, '--simulate', '--points', '30', '--rate', '500'];
-  return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'cli/main.ts', 'stream', ...args], { cwd: process.cwd(), stdio: ['ignore', 'pipe', 'pipe'] });
-    let output = '';
-    child.stdout.on('data', (chunk) => (output += chunk));
-    child.stderr.on('data', (chunk) => (output += chunk));
-    child.on('error', reject);
-    child.on('close', (code) => resolve({ code, output }));
-  });
+  const run = await runCli('stream', args);
+  return { code: run.status, output: run.stdout + run.stderr };
 }
 
 const squash = (text: string) => text.replace(/\s+/g, ' ').trim();
 
 beforeAll(async () => {
-  if (!clientBuilt) throw new Error('The client is not built: run the suite with `npm test`, which builds it');
-  if (!existsSync(chromiumPath)) throw new Error(`Chromium is missing at ${chromiumPath}: npm test installs it`);
+  browser = await launchJourneyBrowser();
   app = await startTestApp({ seed: 'demo' });
-  browser = await launchBrowser();
-  designer = await signedInAgent('designer@rejectra.test');
-  const technician = await signedInAgent('tech@rejectra.test');
+  designer = await app.signedIn('designer@rejectra.test');
+  const technician = await app.signedIn('tech@rejectra.test');
   const designs = (await designer.get('/api/designs').expect(200)).body.designs as DesignSummary[];
   const design = designs.find((candidate) => candidate.name === designName)!;
   const created = await technician
@@ -85,7 +63,7 @@ describe('session analysis in the browser', () => {
   it('shows a streamed session filling in live, then its verdict and diagnosis, and exports the PDF report from the page', { timeout: 180_000 }, async () => {
     const context = await browser.newContext({ viewport: { width: 1440, height: 900 }, acceptDownloads: true });
     const page = await context.newPage();
-    await signIn(page, 'designer@rejectra.test');
+    await signInPage(page, app.url, 'designer@rejectra.test');
     await page.goto(`${app.url}/sessions/${sessionId}`);
     await expect.poll(() => page.locator('[data-live-status="live"]').count(), patient).toBe(1);
     await page.evaluate(() => ((window as unknown as { journeyMarker: string }).journeyMarker = 'not reloaded'));
@@ -146,7 +124,7 @@ describe('session analysis in the browser', () => {
     const demo = listed.find((candidate) => candidate.unitSerial === 'HRB204-0003')!;
     const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
     const page = await context.newPage();
-    await signIn(page, 'designer@rejectra.test');
+    await signInPage(page, app.url, 'designer@rejectra.test');
     // Hold the analysis back, as a long session's would be while the server fits it.
     let release!: () => void;
     const held = new Promise<void>((resolve) => (release = resolve));
@@ -197,7 +175,7 @@ describe('session analysis in the browser', () => {
   it('compares two demo sessions overlaid, with the difference at a typed and then a clicked frequency', { timeout: 120_000 }, async () => {
     const context = await browser.newContext({ viewport: { width: 1440, height: 900 } });
     const page = await context.newPage();
-    await signIn(page, 'designer@rejectra.test');
+    await signInPage(page, app.url, 'designer@rejectra.test');
     await page.getByRole('link', { name: 'Compare', exact: true }).click();
     await expect.poll(() => page.getByText('Choose sessions to compare').count(), patient).toBe(1);
     const search = page.getByLabel('Search sessions');
